@@ -1,0 +1,35 @@
+export type { ArcSegment, LineSegment, Loop, Part, Point, Region, Segment } from './types';
+export { GeometryError, type GeometryErrorCode } from './errors';
+export {
+  TAU,
+  arc,
+  arcFromCentre,
+  arcContainsAngle,
+  applyToPoint,
+  endPoint,
+  line,
+  pointOnArc,
+  reverseSegment,
+  segmentLength,
+  startPoint,
+  transformSegment,
+  type Similarity,
+} from './segment';
+export { loopMoments, regionMoments, type RawMoments } from './moments';
+export { loopBox, regionBox, regionRange, segmentRange, type Box } from './extent';
+export {
+  allLoops,
+  checkLoop,
+  makeRegion,
+  mirrorX,
+  perimeter,
+  reverseLoop,
+  rotation,
+  scaling,
+  segmentCount,
+  signedLoopArea,
+  transformRegion,
+  translation,
+} from './region';
+export { plasticAboutHorizontal, type PlasticAxis } from './plastic';
+export { sectionProperties, type PropertyKey, type SectionProperties } from './properties';
