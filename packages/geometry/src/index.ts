@@ -33,3 +33,15 @@ export {
 } from './region';
 export { plasticAboutHorizontal, type PlasticAxis } from './plastic';
 export { sectionProperties, type PropertyKey, type SectionProperties } from './properties';
+export {
+  LENGTH_UNITS,
+  OUTPUT_UNITS,
+  PROPERTY_DIMENSION,
+  convertProperties,
+  isLengthUnit,
+  isOutputUnit,
+  lengthFactor,
+  propertyUnit,
+  type LengthUnit,
+  type OutputUnit,
+} from './units';
