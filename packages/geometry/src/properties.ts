@@ -67,7 +67,8 @@ export function sectionProperties(region: Region): SectionProperties {
   const I1 = mean + rad;
   const I2 = mean - rad;
   // tan 2θ = −2Ixy / (Ix − Iy) at the axis of the largest second moment.
-  let thetaRad = rad === 0 ? 0 : Math.atan2(-2 * Ixy, Ix - Iy) / 2;
+  // Below the stated accuracy the section is isotropic (circle, square): every axis is principal.
+  let thetaRad = rad <= 1e-12 * mean ? 0 : Math.atan2(-2 * Ixy, Ix - Iy) / 2;
   if (thetaRad <= -Math.PI / 2) thetaRad += Math.PI; // atan2(−0, ·) = −π: keep θ in (−90°, 90°]
   const c = { x: cx, y: cy };
 
