@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   arc,
+  findCrossing,
   line,
   makeRegion,
   mirrorX,
@@ -81,6 +82,10 @@ function angleDiff(a: number, b: number): number {
 
 // Invariance laws of second moments under rigid motions and scaling — Gere & Goodno, §12.3–12.8 (transformation equations).
 describe('invariants of the property set (fast-check)', () => {
+  it('the generated profiles are valid: no loop meets another', () => {
+    fc.assert(fc.property(profile, (r) => expect(findCrossing(r, 1e-9)).toBeNull()), { numRuns: 300 });
+  });
+
   it('translation leaves every centroidal value unchanged and moves the centroid', () => {
     fc.assert(
       fc.property(profile, pos(-1e4, 1e4), pos(-1e4, 1e4), (r, dx, dy) => {

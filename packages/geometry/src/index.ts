@@ -45,3 +45,5 @@ export {
   type LengthUnit,
   type OutputUnit,
 } from './units';
+export { nestLoops, pointInLoop } from './nest';
+export { findCrossing, type Crossing } from './crossings';

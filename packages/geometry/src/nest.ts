@@ -1,0 +1,119 @@
+import { loopBox, type Box } from './extent';
+import { makeRegion, signedLoopArea } from './region';
+import { GeometryError } from './errors';
+import { pointOnArc } from './segment';
+import type { ArcSegment, Loop, Point, Region, Segment } from './types';
+
+/**
+ * Whether the horizontal ray from p towards +x crosses the straight piece a→b, by the half-open
+ * rule: a piece counts when exactly one end lies strictly above p (y > p.y), so a ray through a
+ * shared vertex counts once, and a horizontal piece never.
+ */
+function crossesLine(a: Point, b: Point, p: Point): boolean {
+  if (a.y > p.y === b.y > p.y) return false;
+  const x = a.x + ((p.y - a.y) / (b.y - a.y)) * (b.x - a.x);
+  return x > p.x;
+}
+
+/**
+ * The same test on a y-monotone piece of circle between angles t0 < t1 (no interior extremum of
+ * sin t): the crossing lies on the right half (x = cx + √(r² − (p.y − cy)²)) or the left half.
+ * Exact on the true arc: no polygonal approximation.
+ */
+function crossesArcPiece(s: ArcSegment, t0: number, t1: number, y0: number, y1: number, p: Point): boolean {
+  if (y0 > p.y === y1 > p.y) return false;
+  const u = Math.min(1, Math.max(-1, (p.y - s.c.y) / s.r));
+  const half = s.r * Math.sqrt(1 - u * u);
+  const right = Math.cos((t0 + t1) / 2) > 0;
+  return (right ? s.c.x + half : s.c.x - half) > p.x;
+}
+
+/** Number of crossings of the ray from p towards +x with an arc, split at π/2 and 3π/2 (mod 2π). */
+function arcCrossings(s: ArcSegment, p: Point): number {
+  const lo = Math.min(s.start, s.start + s.sweep);
+  const hi = Math.max(s.start, s.start + s.sweep);
+  // Angles where y is extremal: π/2 + kπ strictly inside (lo, hi).
+  const cuts: number[] = [];
+  for (let t = Math.PI / 2 + Math.PI * Math.ceil((lo - Math.PI / 2) / Math.PI); t < hi; t += Math.PI)
+    if (t > lo) cuts.push(t);
+  // Arc ends come from pointOnArc, as for every other user of the arc, so shared vertices agree.
+  const ends = [pointOnArc(s, s.start), pointOnArc(s, s.start + s.sweep)];
+  const yLo = s.sweep >= 0 ? ends[0]!.y : ends[1]!.y;
+  const yHi = s.sweep >= 0 ? ends[1]!.y : ends[0]!.y;
+  const ts = [lo, ...cuts, hi];
+  let n = 0;
+  for (let i = 0; i + 1 < ts.length; i++) {
+    const t0 = ts[i]!;
+    const t1 = ts[i + 1]!;
+    const y0 = i === 0 ? yLo : s.c.y + s.r * Math.sin(t0);
+    const y1 = i + 2 === ts.length ? yHi : s.c.y + s.r * Math.sin(t1);
+    if (crossesArcPiece(s, t0, t1, y0, y1, p)) n++;
+  }
+  return n;
+}
+
+function crossings(seg: Segment, p: Point): number {
+  if (seg.kind === 'line') return crossesLine(seg.a, seg.b, p) ? 1 : 0;
+  return arcCrossings(seg, p);
+}
+
+/**
+ * Point-in-loop by the parity of crossings of a horizontal ray (half-open rule, exact for arcs).
+ * Points on the boundary may go either way.
+ */
+export function pointInLoop(p: Point, loop: Loop): boolean {
+  let n = 0;
+  for (const s of loop) n += crossings(s, p);
+  return n % 2 === 1;
+}
+
+/** A point on the loop away from its vertices: the middle of its longest segment's chord or arc. */
+function samplePoint(loop: Loop): Point {
+  let best: Segment = loop[0]!;
+  let bestLen = -1;
+  for (const s of loop) {
+    const len =
+      s.kind === 'line' ? Math.hypot(s.b.x - s.a.x, s.b.y - s.a.y) : s.r * Math.abs(s.sweep);
+    if (len > bestLen) {
+      best = s;
+      bestLen = len;
+    }
+  }
+  if (best.kind === 'arc') return pointOnArc(best, best.start + best.sweep / 2);
+  return { x: (best.a.x + best.b.x) / 2, y: (best.a.y + best.b.y) / 2 };
+}
+
+const boxInside = (inner: Box, outer: Box): boolean =>
+  inner.xmin >= outer.xmin && inner.xmax <= outer.xmax && inner.ymin >= outer.ymin && inner.ymax <= outer.ymax;
+
+/**
+ * Builds a region from closed, mutually non-crossing loops given in any order and orientation.
+ * A loop's depth is the number of loops containing it: even depth starts a part (its outer
+ * loop), odd depth is a hole of its smallest container. So a loop inside a hole is an island,
+ * a new part. Containment is tested on one point of the inner loop; loops that cross each other
+ * are not detected here (resolving overlaps belongs to clipping). Orientation is fixed by makeRegion.
+ */
+export function nestLoops(loops: readonly Loop[]): Region {
+  const info = loops.map((loop) => ({ loop, box: loopBox(loop), area: Math.abs(signedLoopArea(loop)), p: samplePoint(loop) }));
+  // Parent candidates of i: larger loops whose box holds i's box and that contain i's sample point.
+  const containers = info.map((a, i) =>
+    info
+      .map((_, j) => j)
+      .filter((j) => j !== i && info[j]!.area > a.area && boxInside(a.box, info[j]!.box) && pointInLoop(a.p, info[j]!.loop)),
+  );
+  const depth = containers.map((c) => c.length);
+  const parts = new Map<number, { outer: Loop; holes: Loop[] }>();
+  info.forEach((a, i) => {
+    if (depth[i]! % 2 === 0) parts.set(i, { outer: a.loop, holes: [] });
+  });
+  info.forEach((a, i) => {
+    if (depth[i]! % 2 === 0) return;
+    // Smallest container: the one of depth d − 1 (an even-depth loop, an outer).
+    const parent = containers[i]!.reduce((best, j) => (info[j]!.area < info[best]!.area ? j : best));
+    const part = parts.get(parent);
+    // Only loops that cross each other can make the smallest container a hole itself.
+    if (!part) throw new GeometryError('DEGENERATE_LOOP', `loops overlap near (${a.p.x}, ${a.p.y}): nesting is ambiguous`);
+    part.holes.push(a.loop);
+  });
+  return makeRegion([...parts.values()]);
+}
