@@ -83,7 +83,9 @@ function angleDiff(a: number, b: number): number {
 // Invariance laws of second moments under rigid motions and scaling — Gere & Goodno, §12.3–12.8 (transformation equations).
 describe('invariants of the property set (fast-check)', () => {
   it('the generated profiles are valid: no loop meets another', () => {
-    fc.assert(fc.property(profile, (r) => expect(findCrossing(r, 1e-9)).toBeNull()), { numRuns: 300 });
+    fc.assert(fc.property(profile, (r) => {
+      expect(findCrossing(r, 1e-9)).toBeNull();
+    }), { numRuns: 300 });
   });
 
   it('translation leaves every centroidal value unchanged and moves the centroid', () => {
