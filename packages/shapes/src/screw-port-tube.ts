@@ -51,7 +51,8 @@ export function screwPortTube(dims: ScrewPortTubeDims): Region {
   const fy = Math.sqrt(a * a - fx * fx);
   if (!(fy > 0)) throw new GeometryError('DEGENERATE_LOOP', 'screw-port tube: fillet radius too large for the boss');
   const halfSpan = Math.atan2(fy, fx); // angular half-width of a boss with its fillets, seen from the centre
-  if (!(n === 1 || halfSpan < Math.PI / n))
+  // Neighbouring bosses must leave room for both fillets between them (conservative), and meet the bore apart.
+  if (!(n === 1 || (halfSpan < Math.PI / n && 2 * e * Math.sin(Math.PI / n) > 2 * (rb + rf))))
     throw new GeometryError('DEGENERATE_LOOP', `screw-port tube: ${n} bosses with fillets overlap each other`);
 
   const O = { x: 0, y: 0 };
