@@ -41,7 +41,8 @@ export function tSlotProfile(dims: TSlotDims): Region {
   const h = a / 2;
   if (!(0 < s && s < w && 0 < tl && tl + k < d && k < w / 2))
     throw new GeometryError('DEGENERATE_LOOP', `T-slot: needs 0 < s < w, 0 < tl, tl + k < d and k < w/2`);
-  if (!(d < h - w / 2)) throw new GeometryError('DEGENERATE_LOOP', `T-slot: slots ${w} wide, ${d} deep meet at the corners`);
+  if (!(d < h - w / 2))
+    throw new GeometryError('DEGENERATE_LOOP', `T-slot: slots ${w} wide, ${d} deep meet at the corners`);
   if (!(d + bore / 2 < h)) throw new GeometryError('DEGENERATE_LOOP', `T-slot: bore ${bore} cuts into the slots`);
 
   const floor: [number, number][] =
