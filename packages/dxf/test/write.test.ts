@@ -338,13 +338,10 @@ const dxf: Record<string, unknown> = existsSync(indexPath) ? await import(/* @vi
 type ReadDrawing = (text: string, opts: { file: string }) => { region: Region } | Promise<{ region: Region }>;
 
 /**
- * Known fault outside this package's writer: geometry's pointInLoop misses the crossing of a full circle
- * (start 0, sweep 2π) for a point a few ulps below the circle's start height, because sin(2π) ≠ 0 puts the
- * end vertex at y = −6e-15, not 0. nestLoops samples the cavity of mx122 at angle 2π − ε and finds it
- * outside the tube, so the entities-style round trip reads A = 3327 instead of 531 mm².
- * `it.fails` turns red once nest.ts is fixed: then drop the name from this set.
+ * Profiles whose round trip fails for a known fault elsewhere, run as `it.fails` (none now: the mx122
+ * full-circle crossing in pointInLoop is fixed, see the regression in packages/geometry/test/nest.test.ts).
  */
-const KNOWN_NEST_FAULT = new Set(['mx122-port-tube-50']);
+const KNOWN_NEST_FAULT = new Set<string>();
 
 describe.skipIf(!('readDrawing' in dxf))('round trip through readDrawing', () => {
   for (const p of PROFILES) {
