@@ -1,10 +1,11 @@
 // Runs dxf-parser off the main thread, so that a file that makes it loop or balloon can be
-// stopped (time and memory limits are set by parse.ts). Plain JavaScript: it runs as is under
-// node, tsx and vitest. Whatever the parser prints goes into `notes` instead of the terminal.
+// stopped (time and memory limits are set by parse.ts). One thread serves many files in turn.
+// Plain JavaScript: it runs as is under node, tsx and vitest. Whatever the parser prints goes
+// into `notes`, returned with each result, instead of the terminal.
 import { format } from 'node:util';
-import { parentPort, workerData } from 'node:worker_threads';
+import { parentPort } from 'node:worker_threads';
 
-const notes = [];
+let notes = [];
 const keep = (...args) => {
   if (notes.length < 20) notes.push(format(...args));
 };
@@ -13,9 +14,12 @@ for (const k of ['log', 'info', 'warn', 'error', 'debug', 'trace']) globalThis.c
 // Imported after console is replaced: its logger binds the console methods when it loads.
 const { default: DxfParser } = await import('dxf-parser');
 
-try {
-  const dxf = new DxfParser().parseSync(workerData.text);
-  parentPort.postMessage({ ok: true, header: dxf?.header ?? {}, entities: dxf?.entities ?? [], notes });
-} catch (e) {
-  parentPort.postMessage({ ok: false, message: e instanceof Error ? e.message : String(e), notes });
-}
+parentPort.on('message', ({ id, text }) => {
+  notes = [];
+  try {
+    const dxf = new DxfParser().parseSync(text);
+    parentPort.postMessage({ id, ok: true, header: dxf?.header ?? {}, entities: dxf?.entities ?? [], notes });
+  } catch (e) {
+    parentPort.postMessage({ id, ok: false, message: e instanceof Error ? e.message : String(e), notes });
+  }
+});

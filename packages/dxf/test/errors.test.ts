@@ -91,6 +91,11 @@ describe('bad input gives a DxfError with a stable code and one line naming the 
     const t0 = Date.now();
     expect(await fault(dxf(rectLines(0, 0, 1, 1), { before: tables }), { timeoutMs: 300 })).toMatchObject({ code: 'PARSE_TIMEOUT', message: /within 0.3 s/ });
     expect(Date.now() - t0).toBeLessThan(2000);
+    // The stuck thread is replaced: drawings queued behind it, and after it, still read.
+    const stuck = readDrawing(dxf(rectLines(0, 0, 1, 1), { before: tables }), { file: 'stuck.dxf', timeoutMs: 300 });
+    const after = [1, 2, 3].map((k) => readDrawing(dxf(rectLines(0, 0, k, 1)), { file: `ok${k}.dxf` }));
+    await expect(stuck).rejects.toMatchObject({ code: 'PARSE_TIMEOUT' });
+    expect((await Promise.all(after)).map((d) => d.stats.loops)).toEqual([1, 1, 1]);
   });
 
   it('PARSE_MEMORY and TOO_LARGE', async () => {
