@@ -1,0 +1,20 @@
+import { USAGE, parseArgs } from './args';
+import { faultOf } from './faults';
+import { propsCommand, type Io } from './props-command';
+
+/** The whole CLI as a function of its arguments: returns the exit code. */
+export async function run(argv: readonly string[], io: Io): Promise<number> {
+  try {
+    const args = parseArgs(argv);
+    if (args.command === 'help') {
+      io.out(`${USAGE}\n`);
+      return 0;
+    }
+    return await propsCommand(args, io);
+  } catch (e) {
+    const f = faultOf(e);
+    io.err(f.line);
+    if (f.exit === 1 && io.debug && f.stack) io.err(f.stack);
+    return f.exit;
+  }
+}
