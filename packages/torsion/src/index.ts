@@ -1,0 +1,20 @@
+export { torsionProperties, meshRegion, baseMesh, meshParams, type TorsionOptions, type TorsionProperties } from './torsion';
+export { meshSvg, type MeshSvgOptions } from './svg';
+export { generateMesh, type MeshParams, type TriMesh } from './mesh';
+export { quadratic, refine, prolong, edgesOf, type QuadMesh, type Level, type Edges } from './levels';
+export { solveWarping, type LevelResult } from './warping';
+export { frameOf, curvesOf, type Frame, type Curve } from './frame';
+export {
+  applyFactor,
+  conjugateGradient,
+  entry,
+  incompleteCholesky,
+  multiply,
+  patternOf,
+  permute,
+  reverseCuthillMcKee,
+  type Csr,
+  type Factor,
+  type SolveReport,
+} from './sparse';
+export { TorsionError, type TorsionErrorCode } from './errors';

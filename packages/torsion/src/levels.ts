@@ -1,0 +1,220 @@
+import { curveX, curveY } from './frame';
+import type { TriMesh } from './mesh';
+
+/**
+ * Six-node (quadratic) triangles. Nodes 0 … nv−1 are the triangle corners, then one node per
+ * edge. Element k lists corners v0 v1 v2 (counter-clockwise), then the nodes on edges v0–v1,
+ * v1–v2, v2–v0. A node on a curved boundary edge sits on the exact arc at its middle parameter,
+ * making the elements beside an arc isoparametric; every other edge node is the edge's midpoint.
+ */
+export interface QuadMesh {
+  readonly x: Float64Array;
+  readonly y: Float64Array;
+  readonly el: Uint32Array;
+  /** Per element, 1 when a side is curved (its Jacobian varies). */
+  readonly curved: Uint8Array;
+  readonly corners: number;
+}
+
+/** Numbered edges of a triangulation: ends ea[k] < eb[k]; triEdge[3t + i] is edge (v_i, v_i+1) of triangle t. */
+export interface Edges {
+  readonly ea: Uint32Array;
+  readonly eb: Uint32Array;
+  readonly triEdge: Uint32Array;
+}
+
+export function edgesOf(tri: Uint32Array, nv: number): Edges {
+  const nt = tri.length / 3;
+  // Edges grouped by their smaller end: counting sort, then a short scan per vertex.
+  const count = new Uint32Array(nv + 1);
+  for (let e = 0; e < 3 * nt; e++) {
+    const a = tri[e]!;
+    const b = tri[e % 3 === 2 ? e - 2 : e + 1]!;
+    count[Math.min(a, b) + 1]!++;
+  }
+  for (let v = 0; v < nv; v++) count[v + 1]! += count[v]!;
+  const slotOther = new Int32Array(3 * nt).fill(-1);
+  const slotId = new Uint32Array(3 * nt);
+  const fill = count.slice(0, nv);
+  const triEdge = new Uint32Array(3 * nt);
+  const ea: number[] = [];
+  const eb: number[] = [];
+  for (let e = 0; e < 3 * nt; e++) {
+    const a = tri[e]!;
+    const b = tri[e % 3 === 2 ? e - 2 : e + 1]!;
+    const lo = Math.min(a, b);
+    const hi = Math.max(a, b);
+    let id = -1;
+    for (let s = count[lo]!; s < fill[lo]!; s++)
+      if (slotOther[s] === hi) {
+        id = slotId[s]!;
+        break;
+      }
+    if (id < 0) {
+      id = ea.length;
+      ea.push(lo);
+      eb.push(hi);
+      const s = fill[lo]!++;
+      slotOther[s] = hi;
+      slotId[s] = id;
+    }
+    triEdge[e] = id;
+  }
+  return { ea: Uint32Array.from(ea), eb: Uint32Array.from(eb), triEdge };
+}
+
+/** Per edge, the boundary piece on it (index into the mesh's boundary arrays), or −1. */
+function boundaryOfEdges(m: TriMesh, E: Edges): Int32Array {
+  const nv = m.x.length;
+  const byLo = new Map<number, number>();
+  for (let k = 0; k < E.ea.length; k++) byLo.set(E.ea[k]! * nv + E.eb[k]!, k);
+  const out = new Int32Array(E.ea.length).fill(-1);
+  for (let k = 0; k < m.ba.length; k++) {
+    const a = m.ba[k]!;
+    const b = m.bb[k]!;
+    const id = byLo.get(Math.min(a, b) * nv + Math.max(a, b));
+    if (id !== undefined) out[id] = k;
+  }
+  return out;
+}
+
+/** Edge midpoints: on the exact curve for boundary arcs, straight otherwise. */
+function midpoints(m: TriMesh, E: Edges, bEdge: Int32Array): { mx: Float64Array; my: Float64Array; bent: Uint8Array } {
+  const ne = E.ea.length;
+  const mx = new Float64Array(ne);
+  const my = new Float64Array(ne);
+  const bent = new Uint8Array(ne);
+  for (let k = 0; k < ne; k++) {
+    const a = E.ea[k]!;
+    const b = E.eb[k]!;
+    mx[k] = (m.x[a]! + m.x[b]!) / 2;
+    my[k] = (m.y[a]! + m.y[b]!) / 2;
+    const bk = bEdge[k]!;
+    if (bk < 0) continue;
+    const c = m.curves[m.bc[bk]!]!;
+    if (!c.arc) continue;
+    const t = (m.bt0[bk]! + m.bt1[bk]!) / 2;
+    mx[k] = curveX(c, t);
+    my[k] = curveY(c, t);
+    bent[k] = 1;
+  }
+  return { mx, my, bent };
+}
+
+export interface Level {
+  readonly tri: TriMesh;
+  readonly quad: QuadMesh;
+  readonly edges: Edges;
+}
+
+/** The quadratic mesh on a triangulation. */
+export function quadratic(m: TriMesh): Level {
+  const nv = m.x.length;
+  const E = edgesOf(m.tri, nv);
+  const bEdge = boundaryOfEdges(m, E);
+  const { mx, my, bent } = midpoints(m, E, bEdge);
+  const ne = E.ea.length;
+  const x = new Float64Array(nv + ne);
+  const y = new Float64Array(nv + ne);
+  x.set(m.x);
+  y.set(m.y);
+  x.set(mx, nv);
+  y.set(my, nv);
+  const nt = m.tri.length / 3;
+  const el = new Uint32Array(6 * nt);
+  const curved = new Uint8Array(nt);
+  for (let t = 0; t < nt; t++) {
+    for (let i = 0; i < 3; i++) {
+      el[6 * t + i] = m.tri[3 * t + i]!;
+      const e = E.triEdge[3 * t + i]!;
+      el[6 * t + 3 + i] = nv + e;
+      if (bent[e]) curved[t] = 1;
+    }
+  }
+  return { tri: m, quad: { x, y, el, curved, corners: nv }, edges: E };
+}
+
+/**
+ * Uniform refinement: every triangle splits into four through its edge midpoints (on the exact
+ * curve at boundary arcs). The new corners are numbered as the parent level's quadratic nodes,
+ * so a quadratic field on the parent is known at them without interpolation.
+ */
+export function refine(L: Level): TriMesh {
+  const m = L.tri;
+  const { quad } = L;
+  const nt = m.tri.length / 3;
+  const tri = new Uint32Array(12 * nt);
+  for (let t = 0; t < nt; t++) {
+    const [v0, v1, v2, m01, m12, m20] = quad.el.subarray(6 * t, 6 * t + 6);
+    tri.set([v0!, m01!, m20!, m01!, v1!, m12!, m20!, m12!, v2!, m01!, m12!, m20!], 12 * t);
+  }
+  const nb = m.ba.length;
+  const ba = new Uint32Array(2 * nb);
+  const bb = new Uint32Array(2 * nb);
+  const bc = new Int32Array(2 * nb);
+  const bt0 = new Float64Array(2 * nb);
+  const bt1 = new Float64Array(2 * nb);
+  const nv = m.x.length;
+  const byLo = new Map<number, number>();
+  for (let k = 0; k < L.edges.ea.length; k++) byLo.set(L.edges.ea[k]! * nv + L.edges.eb[k]!, k);
+  for (let k = 0; k < nb; k++) {
+    const a = m.ba[k]!;
+    const b = m.bb[k]!;
+    const mid = nv + byLo.get(Math.min(a, b) * nv + Math.max(a, b))!;
+    const tm = (m.bt0[k]! + m.bt1[k]!) / 2;
+    ba[2 * k] = a;
+    bb[2 * k] = mid;
+    ba[2 * k + 1] = mid;
+    bb[2 * k + 1] = b;
+    bc[2 * k] = bc[2 * k + 1] = m.bc[k]!;
+    bt0[2 * k] = m.bt0[k]!;
+    bt1[2 * k] = tm;
+    bt0[2 * k + 1] = tm;
+    bt1[2 * k + 1] = m.bt1[k]!;
+  }
+  return { ...m, x: quad.x, y: quad.y, tri, ba, bb, bc, bt0, bt1 };
+}
+
+/**
+ * Carries a quadratic field from a level to its refinement (used as the starting guess of the
+ * iterative solve): the fine corners are the coarse nodes; a fine edge node takes the coarse
+ * element's quadratic interpolant at its barycentric position.
+ */
+export function prolong(coarse: Level, fine: Level, u: Float64Array): Float64Array {
+  const out = new Float64Array(fine.quad.x.length);
+  out.set(u);
+  const nf = fine.quad.corners;
+  const cel = coarse.quad.el;
+  const fel = fine.quad.el;
+  const nt = cel.length / 6;
+  // Barycentric coordinates of each child's corners in the parent (order as in `refine`).
+  const B = [
+    [1, 0, 0], [0.5, 0.5, 0], [0.5, 0, 0.5],
+    [0.5, 0.5, 0], [0, 1, 0], [0, 0.5, 0.5],
+    [0.5, 0, 0.5], [0, 0.5, 0.5], [0, 0, 1],
+    [0.5, 0.5, 0], [0, 0.5, 0.5], [0.5, 0, 0.5],
+  ];
+  for (let t = 0; t < nt; t++) {
+    const p = cel.subarray(6 * t, 6 * t + 6);
+    for (let c = 0; c < 4; c++) {
+      const child = 4 * t + c;
+      for (let i = 0; i < 3; i++) {
+        const node = fel[6 * child + 3 + i]!;
+        if (node < nf) continue;
+        const a = B[3 * c + i]!;
+        const b = B[3 * c + ((i + 1) % 3)]!;
+        const l0 = (a[0]! + b[0]!) / 2;
+        const l1 = (a[1]! + b[1]!) / 2;
+        const l2 = (a[2]! + b[2]!) / 2;
+        out[node] =
+          l0 * (2 * l0 - 1) * u[p[0]!]! +
+          l1 * (2 * l1 - 1) * u[p[1]!]! +
+          l2 * (2 * l2 - 1) * u[p[2]!]! +
+          4 * l0 * l1 * u[p[3]!]! +
+          4 * l1 * l2 * u[p[4]!]! +
+          4 * l2 * l0 * u[p[5]!]!;
+      }
+    }
+  }
+  return out;
+}
