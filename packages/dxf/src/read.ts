@@ -41,7 +41,12 @@ export function formatPoint(p: Point): string {
 function collectPieces(scan: RawScan, entities: readonly ParsedEntity[], file: string, warnings: string[]) {
   // dxf-parser lists the entities it knows in file order, so the k-th of a type is the scan's k-th of that type.
   const parsed = new Map<string, ParsedEntity[]>();
-  for (const e of entities) if (e.type && READ_TYPES.has(e.type)) parsed.set(e.type, [...(parsed.get(e.type) ?? []), e]);
+  for (const e of entities) {
+    if (!e.type || !READ_TYPES.has(e.type)) continue;
+    const list = parsed.get(e.type);
+    if (list) list.push(e);
+    else parsed.set(e.type, [e]);
+  }
   const taken = new Map<string, number>();
   const pieces: Piece[] = [];
   const ignored = new Map<string, number>();

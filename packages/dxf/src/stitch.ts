@@ -51,15 +51,25 @@ class UnionFind {
 
 const dist = (p: Point, q: Point) => Math.hypot(p.x - q.x, p.y - q.y);
 
-/** Groups end points closer than tol (chains of such points merge): a sweep over x. */
+/**
+ * Groups end points closer than tol (chains of such points merge). Points are binned in a grid of
+ * cell tol, so only the 3 × 3 cells around a point are searched: linear for ordinary drawings.
+ */
 function clusterEnds(ends: readonly Point[], tol: number): number[] {
   const uf = new UnionFind(ends.length);
-  const order = ends.map((_, i) => i).sort((i, j) => ends[i]!.x - ends[j]!.x);
-  for (let a = 0; a < order.length; a++) {
-    const p = ends[order[a]!]!;
-    for (let b = a + 1; b < order.length && ends[order[b]!]!.x - p.x <= tol; b++)
-      if (dist(p, ends[order[b]!]!) <= tol) uf.union(order[a]!, order[b]!);
-  }
+  const cell = tol > 0 ? tol : 1;
+  const grid = new Map<string, number[]>();
+  const at = (p: Point) => [Math.floor(p.x / cell), Math.floor(p.y / cell)] as const;
+  ends.forEach((p, i) => {
+    const [cx, cy] = at(p);
+    for (let dx = -1; dx <= 1; dx++)
+      for (let dy = -1; dy <= 1; dy++)
+        for (const j of grid.get(`${cx + dx},${cy + dy}`) ?? []) if (dist(p, ends[j]!) <= tol) uf.union(i, j);
+    const key = `${cx},${cy}`;
+    const list = grid.get(key);
+    if (list) list.push(i);
+    else grid.set(key, [i]);
+  });
   return ends.map((_, i) => uf.find(i));
 }
 
@@ -104,6 +114,7 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
 
   const edges: Edge[] = [];
   const duplicates: EntitySource[] = [];
+  const between = new Map<string, Edge[]>();
   let degenerate = 0;
   pieces.forEach(({ seg, src }, i) => {
     const u = cluster[2 * i]!;
@@ -114,13 +125,24 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
       return;
     }
     const e: Edge = { seg: seg.kind === 'line' ? line(rep.get(u)!, rep.get(v)!) : seg, src, u, v };
-    if (edges.some((f) => sameCurve(e, f, tol))) duplicates.push(src);
-    else edges.push(e);
+    // Only edges between the same two points can coincide.
+    const pair = u < v ? `${u},${v}` : `${v},${u}`;
+    const same = between.get(pair);
+    if (same?.some((f) => sameCurve(e, f, tol))) duplicates.push(src);
+    else {
+      edges.push(e);
+      if (same) same.push(e);
+      else between.set(pair, [e]);
+    }
   });
 
   const at = new Map<number, number[]>();
   edges.forEach((e, i) => {
-    for (const k of [e.u, e.v]) at.set(k, [...(at.get(k) ?? []), i]);
+    for (const k of [e.u, e.v]) {
+      const list = at.get(k);
+      if (list) list.push(i);
+      else at.set(k, [i]);
+    }
   });
   const faultAt = (pred: (n: number) => boolean) =>
     [...at.entries()].filter(([, es]) => pred(es.length)).map(([k, es]) => ({ p: rep.get(k)!, srcs: es.map((i) => edges[i]!.src) }));

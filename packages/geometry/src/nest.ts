@@ -61,14 +61,21 @@ function arcCrossings(s: ArcSegment, p: Point, y0: number, y1: number): number {
  * Points on the boundary may go either way.
  */
 export function pointInLoop(p: Point, loop: Loop): boolean {
+  return inside(p, loop, vertexHeights(loop));
+}
+
+/** Height of each vertex: that of the start of the segment leaving it. */
+const vertexHeights = (loop: Loop): Float64Array => Float64Array.from(loop, (s) => startPoint(s).y);
+
+function inside(p: Point, loop: Loop, ys: Float64Array): boolean {
   let n = 0;
-  const starts = loop.map(startPoint);
-  loop.forEach((s, i) => {
-    const y0 = starts[i]!.y;
-    const y1 = starts[(i + 1) % loop.length]!.y;
+  for (let i = 0; i < loop.length; i++) {
+    const s = loop[i]!;
+    const y0 = ys[i]!;
+    const y1 = ys[(i + 1) % loop.length]!;
     if (s.kind === 'arc') n += arcCrossings(s, p, y0, y1);
-    else if (crossesLine({ x: s.a.x, y: y0 }, { x: s.b.x, y: y1 }, p)) n++;
-  });
+    else if (y0 > p.y !== y1 > p.y && crossesLine({ x: s.a.x, y: y0 }, { x: s.b.x, y: y1 }, p)) n++;
+  }
   return n % 2 === 1;
 }
 
@@ -99,12 +106,18 @@ const boxInside = (inner: Box, outer: Box): boolean =>
  * are not detected here (resolving overlaps belongs to clipping). Orientation is fixed by makeRegion.
  */
 export function nestLoops(loops: readonly Loop[]): Region {
-  const info = loops.map((loop) => ({ loop, box: loopBox(loop), area: Math.abs(signedLoopArea(loop)), p: samplePoint(loop) }));
+  const info = loops.map((loop) => ({
+    loop,
+    box: loopBox(loop),
+    area: Math.abs(signedLoopArea(loop)),
+    p: samplePoint(loop),
+    ys: vertexHeights(loop),
+  }));
   // Parent candidates of i: larger loops whose box holds i's box and that contain i's sample point.
   const containers = info.map((a, i) =>
     info
       .map((_, j) => j)
-      .filter((j) => j !== i && info[j]!.area > a.area && boxInside(a.box, info[j]!.box) && pointInLoop(a.p, info[j]!.loop)),
+      .filter((j) => j !== i && info[j]!.area > a.area && boxInside(a.box, info[j]!.box) && inside(a.p, info[j]!.loop, info[j]!.ys)),
   );
   const depth = containers.map((c) => c.length);
   const parts = new Map<number, { outer: Loop; holes: Loop[] }>();
