@@ -11,7 +11,7 @@ export interface Piece {
 }
 
 /** Entity types whose geometry Keelson reads; everything else is counted and reported. */
-export const READ_TYPES: ReadonlySet<string> = new Set(['LINE', 'ARC', 'CIRCLE', 'LWPOLYLINE']);
+export const READ_TYPES: ReadonlySet<string> = new Set(['LINE', 'ARC', 'CIRCLE', 'LWPOLYLINE', 'POLYLINE']);
 
 /** Reads one entity's numbers, failing with the entity named. */
 class Reader {
@@ -88,10 +88,17 @@ function extrusionOf(e: ParsedEntity, raw: RawEntity | undefined): { x?: number;
 }
 
 /**
- * Segments of one LINE, ARC, CIRCLE or LWPOLYLINE in world coordinates (OCS applied to ARC,
- * CIRCLE and LWPOLYLINE; LINE is stored in world coordinates). Widths are ignored, with a warning.
+ * Segments of one LINE, ARC, CIRCLE, LWPOLYLINE or 2D POLYLINE in world coordinates (OCS applied to
+ * all but LINE, which is stored in world coordinates); null for an entity of a kind not read.
+ * Polyline widths are ignored, with a warning.
  */
-export function entitySegments(e: ParsedEntity, src: EntitySource, raw: RawEntity | undefined, file: string, warnings: string[]): Segment[] {
+export function entitySegments(
+  e: ParsedEntity,
+  src: EntitySource,
+  raw: RawEntity | undefined,
+  file: string,
+  warnings: string[],
+): Segment[] | null {
   const r = new Reader(e, src, file);
   switch (e.type) {
     case 'LINE': {
@@ -111,20 +118,30 @@ export function entitySegments(e: ParsedEntity, src: EntitySource, raw: RawEntit
       // dxf-parser drops a CIRCLE's extrusion direction: it comes from the raw scan.
       return [r.plane(extrusionOf(e, raw))(arc(c, r.radius(e.radius), 0, TAU))];
     }
-    case 'LWPOLYLINE': {
-      const vs = (Array.isArray(e.vertices) ? e.vertices : []) as Vertex[];
-      const pts = vs.map((v, i) => r.point(v, `vertex ${i + 1}`));
-      const bulges = vs.map((v, i) => (v.bulge === undefined ? 0 : r.num(v.bulge, `bulge of vertex ${i + 1}`)));
-      const wide = (typeof e.width === 'number' && e.width !== 0) || vs.some((v) => Boolean(v.startWidth) || Boolean(v.endWidth));
-      if (wide) warnings.push(`${entityLabel(src)} has a width: its centreline is used`);
-      const closed = e.shape === true;
-      const toWorld = r.plane(extrusionOf(e, raw));
-      const segs: Segment[] = [];
-      const n = closed ? pts.length : pts.length - 1;
-      for (let i = 0; i < n; i++) segs.push(toWorld(bulgeSegment(pts[i]!, pts[(i + 1) % pts.length]!, bulges[i]!)));
-      return segs;
+    case 'LWPOLYLINE':
+      return polylineSegments(r, e, src, raw, warnings);
+    case 'POLYLINE': {
+      // Old-style POLYLINE: only the plain 2D kind is an outline; 3D polylines, meshes and smoothed
+      // (curve- or spline-fit) ones are reported instead, as their drawn shape is not their vertices'.
+      if (e.is3dPolyline || e.is3dPolygonMesh || e.isPolyfaceMesh) return null;
+      if (e.includesCurveFitVertices || e.includesSplineFitVertices) return null;
+      return polylineSegments(r, e, src, raw, warnings);
     }
     default:
-      return [];
+      return null;
   }
+}
+
+/** LWPOLYLINE or 2D POLYLINE: straight or bulged sides between vertices, closed by flag 70 bit 1. */
+function polylineSegments(r: Reader, e: ParsedEntity, src: EntitySource, raw: RawEntity | undefined, warnings: string[]): Segment[] {
+  const vs = (Array.isArray(e.vertices) ? e.vertices : []) as Vertex[];
+  const pts = vs.map((v, i) => r.point(v, `vertex ${i + 1}`));
+  const bulges = vs.map((v, i) => (v.bulge === undefined ? 0 : r.num(v.bulge, `bulge of vertex ${i + 1}`)));
+  const wide = (typeof e.width === 'number' && e.width !== 0) || vs.some((v) => Boolean(v.startWidth) || Boolean(v.endWidth));
+  if (wide) warnings.push(`${entityLabel(src)} has a width: its centreline is used`);
+  const toWorld = r.plane(extrusionOf(e, raw));
+  const segs: Segment[] = [];
+  const n = e.shape === true ? pts.length : pts.length - 1;
+  for (let i = 0; i < n; i++) segs.push(toWorld(bulgeSegment(pts[i]!, pts[(i + 1) % pts.length]!, bulges[i]!)));
+  return segs;
 }

@@ -65,10 +65,12 @@ function collectPieces(scan: RawScan, entities: readonly ParsedEntity[], file: s
     const e = parsed.get(raw.type)?.[k];
     if (!e) throw new Error(`${file}: parser and scan disagree on ${entityLabel(raw)}`);
     const src: EntitySource = { type: raw.type, handle: raw.handle, layer: raw.layer ?? e.layer, line: raw.line };
-    for (const seg of entitySegments(e, src, raw, file, warnings)) pieces.push({ seg, src });
+    const segs = entitySegments(e, src, raw, file, warnings);
+    if (segs) for (const seg of segs) pieces.push({ seg, src });
+    else ignored.set(`${raw.type} (3D, mesh or smoothed)`, (ignored.get(`${raw.type} (3D, mesh or smoothed)`) ?? 0) + 1);
   }
   const skipped = [...ignored].map(([t, n]) => `${n} ${t}`).join(', ');
-  if (skipped) warnings.push(`ignored ${skipped}: Keelson reads LINE, ARC, CIRCLE and LWPOLYLINE`);
+  if (skipped) warnings.push(`ignored ${skipped}: Keelson reads LINE, ARC, CIRCLE, LWPOLYLINE and 2D POLYLINE`);
   if (paperSpace) warnings.push(`ignored ${paperSpace} paper-space entit${paperSpace === 1 ? 'y' : 'ies'}`);
   return { pieces, skipped };
 }
@@ -81,7 +83,7 @@ function describe(places: StitchFault['at'], max = 3): string {
 function stitchError(f: StitchFault, file: string, skipped: string): DxfError {
   const also = skipped ? `; not read: ${skipped}` : '';
   if (f.kind === 'none')
-    return new DxfError('NO_CLOSED_OUTLINE', file, `no closed outline: no LINE, ARC, CIRCLE or LWPOLYLINE in model space${also}`);
+    return new DxfError('NO_CLOSED_OUTLINE', file, `no closed outline: no LINE, ARC, CIRCLE, LWPOLYLINE or POLYLINE in model space${also}`);
   if (f.kind === 'branching')
     return new DxfError('BRANCHING_OUTLINE', file, `more than two segment ends meet at ${describe(f.at, 1)}${also}`);
   const ends = `${f.at.length} open end${f.at.length === 1 ? '' : 's'} at ${describe(f.at)}`;

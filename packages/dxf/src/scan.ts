@@ -42,7 +42,7 @@ export interface RawScan {
   readonly insunits?: number;
 }
 
-/** Entity types whose coordinates Keelson reads: their numbers must be finite. */
+/** Entity types whose own numbers Keelson reads: they must be finite (POLYLINE's are in its VERTEX entities). */
 const GEOMETRY_TYPES = new Set(['LINE', 'ARC', 'CIRCLE', 'LWPOLYLINE']);
 
 const isFloatCode = (c: number) => (c >= 10 && c <= 59) || (c >= 110 && c <= 149) || (c >= 210 && c <= 239);

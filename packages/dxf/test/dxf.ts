@@ -49,3 +49,10 @@ export const rectLines = (x0: number, y0: number, w: number, h: number): Tag[][]
   LINE([x0 + w, y0 + h], [x0, y0 + h]),
   LINE([x0, y0 + h], [x0, y0]),
 ];
+
+/** Old-style POLYLINE with VERTEX entities and SEQEND; flags as group 70 (1 closed, 8 3D). */
+export const POLYLINE = (pts: readonly (readonly [number, number, number?])[], flags = 1, z?: number): Tag[] => [
+  [0, 'POLYLINE'], h(), [8, '0'], [66, 1], [10, 0], [20, 0], [30, 0], [70, flags], ...normal(z),
+  ...pts.flatMap(([x, y, b]): Tag[] => [[0, 'VERTEX'], h(), [8, '0'], [10, x], [20, y], [30, 0], ...(b ? ([[42, b]] as Tag[]) : []), [70, 0]]),
+  [0, 'SEQEND'], h(), [8, '0'],
+];

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { regionMoments, sectionProperties, type Region } from '@keelson/geometry';
 import { readDrawing } from '../src';
-import { ARC, CIRCLE, LINE, LWPOLYLINE, dxf, rectLines, type Tag } from './dxf';
+import { ARC, CIRCLE, LINE, LWPOLYLINE, POLYLINE, dxf, rectLines, type Tag } from './dxf';
 
 const read = (text: string, opts: Partial<Parameters<typeof readDrawing>[1]> = {}) => readDrawing(text, { file: 't.dxf', ...opts });
 const area = (r: Region) => regionMoments(r).a;
@@ -56,6 +56,17 @@ describe('entities', () => {
     close(sectionProperties(quarter.region).cx, 4 / (3 * Math.PI));
   });
 
+  it('2D POLYLINE with VERTEX bulges reads like LWPOLYLINE; 3D ones are reported, not read', async () => {
+    // Slot: 20 × 10 rectangle with half-circle ends of radius 5: A = 20·10 + π·5² — common practice.
+    const slot = await read(dxf([POLYLINE([[0, 0], [20, 0, 1], [20, 10], [0, 10, 1]])]));
+    close(area(slot.region), 200 + Math.PI * 25);
+    // Extrusion (0, 0, −1) mirrors x here too.
+    const mirrored = await read(dxf([POLYLINE([[0, 0], [20, 0, 1], [20, 10], [0, 10, 1]], 1, -1)]));
+    close(sectionProperties(mirrored.region).cx, -10);
+    const d = await read(dxf([...rectLines(0, 0, 1, 1), POLYLINE([[5, 5], [6, 5], [6, 6]], 8)]));
+    expect(d.warnings.join()).toMatch(/ignored 1 POLYLINE \(3D, mesh or smoothed\)/);
+  });
+
   it('an ARC from 350° to 10° sweeps 20°, not −340°', async () => {
     const r = 3;
     const th = (20 * Math.PI) / 180;
@@ -95,7 +106,7 @@ describe('entities', () => {
     const text: Tag[] = [[0, 'TEXT'], [8, '0'], [10, 0], [20, 0], [1, 'hello']];
     const paper: Tag[] = [...LINE([0, 0], [1, 1]), [67, 1]];
     const d = await read(dxf([...rectLines(0, 0, 2, 1), spline, text, spline, paper]));
-    expect(d.warnings).toContain('ignored 2 SPLINE, 1 TEXT: Keelson reads LINE, ARC, CIRCLE and LWPOLYLINE');
+    expect(d.warnings).toContain('ignored 2 SPLINE, 1 TEXT: Keelson reads LINE, ARC, CIRCLE, LWPOLYLINE and 2D POLYLINE');
     expect(d.warnings).toContain('ignored 1 paper-space entity');
     expect(d.stats).toEqual({ entities: 7, segments: 4, loops: 1 });
   });
