@@ -1,7 +1,8 @@
 import { loopBox, type Box } from './extent';
 import { makeRegion, signedLoopArea } from './region';
 import { GeometryError } from './errors';
-import { pointOnArc } from './segment';
+import { flattenSegment } from './flatten';
+import { evalSegment, paramRange, pointOnArc, segmentLength } from './segment';
 import type { ArcSegment, Loop, Point, Region, Segment } from './types';
 
 /**
@@ -52,9 +53,14 @@ function arcCrossings(s: ArcSegment, p: Point): number {
   return n;
 }
 
-function crossings(seg: Segment, p: Point): number {
+function crossings(seg: Segment, p: Point, tol: number): number {
   if (seg.kind === 'line') return crossesLine(seg.a, seg.b, p) ? 1 : 0;
-  return arcCrossings(seg, p);
+  if (seg.kind === 'arc') return arcCrossings(seg, p);
+  // Elliptical arcs and splines: by their chords, fine enough for loops that do not touch.
+  const pts = flattenSegment(seg, tol);
+  let n = 0;
+  for (let i = 0; i + 1 < pts.length; i++) if (crossesLine(pts[i]!, pts[i + 1]!, p)) n++;
+  return n;
 }
 
 /**
@@ -62,8 +68,10 @@ function crossings(seg: Segment, p: Point): number {
  * Points on the boundary may go either way.
  */
 export function pointInLoop(p: Point, loop: Loop): boolean {
+  const b = loopBox(loop);
+  const tol = 1e-7 * Math.max(b.xmax - b.xmin, b.ymax - b.ymin);
   let n = 0;
-  for (const s of loop) n += crossings(s, p);
+  for (const s of loop) n += crossings(s, p, tol);
   return n % 2 === 1;
 }
 
@@ -72,15 +80,14 @@ function samplePoint(loop: Loop): Point {
   let best: Segment = loop[0]!;
   let bestLen = -1;
   for (const s of loop) {
-    const len =
-      s.kind === 'line' ? Math.hypot(s.b.x - s.a.x, s.b.y - s.a.y) : s.r * Math.abs(s.sweep);
+    const len = segmentLength(s);
     if (len > bestLen) {
       best = s;
       bestLen = len;
     }
   }
-  if (best.kind === 'arc') return pointOnArc(best, best.start + best.sweep / 2);
-  return { x: (best.a.x + best.b.x) / 2, y: (best.a.y + best.b.y) / 2 };
+  const [t0, t1] = paramRange(best);
+  return evalSegment(best, (t0 + t1) / 2).p;
 }
 
 const boxInside = (inner: Box, outer: Box): boolean =>
