@@ -122,11 +122,14 @@ export interface Crossing {
 }
 
 /**
- * First place where the region's boundary meets itself other than at the joint of two consecutive
- * segments: crossing or touching loops, a self-intersecting outline, overlapping edges. A sweep over
- * x-sorted bounding boxes keeps it near n log n for ordinary drawings.
+ * Places where the region's boundary meets itself other than at the joint of two consecutive
+ * segments: crossing or touching loops, a self-intersecting outline, overlapping edges — at most
+ * one per pair of loops, up to `limit` of them. A sweep over x-sorted bounding boxes keeps it near
+ * n log n for ordinary drawings.
  */
-export function findCrossing(region: Region, tol: number): Crossing | null {
+export function findCrossings(region: Region, tol: number, limit = Infinity): Crossing[] {
+  const found: Crossing[] = [];
+  const seen = new Set<string>();
   const entries: Entry[] = [];
   allLoops(region).forEach((loop, li) => {
     const expanded = loop.flatMap((s) => pieces(s, tol));
@@ -151,9 +154,19 @@ export function findCrossing(region: Region, tol: number): Crossing | null {
         if ((f.index + 1) % f.size === e.index) joints.push(endPoint(f.seg));
       }
       const bad = pts.find((p) => !joints.some((j) => Math.hypot(p.x - j.x, p.y - j.y) <= tol * 4));
-      if (bad) return { at: bad, loops: [f.loop, e.loop] };
+      const key = `${Math.min(e.loop, f.loop)}:${Math.max(e.loop, f.loop)}`;
+      if (bad && !seen.has(key)) {
+        seen.add(key);
+        found.push({ at: bad, loops: [Math.min(e.loop, f.loop), Math.max(e.loop, f.loop)] });
+        if (found.length >= limit) return found;
+      }
     }
     active.push(e);
   }
-  return null;
+  return found;
+}
+
+/** The first place where the boundary meets itself, or null for a clean region. */
+export function findCrossing(region: Region, tol: number): Crossing | null {
+  return findCrossings(region, tol, 1)[0] ?? null;
 }

@@ -62,6 +62,6 @@ export {
   type OutputUnit,
 } from './units';
 export { nestLoops, pointInLoop } from './nest';
-export { findCrossing, type Crossing } from './crossings';
+export { findCrossing, findCrossings, type Crossing } from './crossings';
 export { flattenSegment } from './flatten';
 export { isRational, splineDomain } from './spline';
