@@ -2,7 +2,7 @@ import { loopBox, type Box } from './extent';
 import { makeRegion, signedLoopArea } from './region';
 import { GeometryError } from './errors';
 import { flattenSegment } from './flatten';
-import { evalSegment, paramRange, pointOnArc, segmentLength } from './segment';
+import { evalSegment, paramRange, segmentLength, startPoint } from './segment';
 import type { ArcSegment, Loop, Point, Region, Segment } from './types';
 
 /**
@@ -29,35 +29,36 @@ function crossesArcPiece(s: ArcSegment, t0: number, t1: number, y0: number, y1: 
   return (right ? s.c.x + half : s.c.x - half) > p.x;
 }
 
-/** Number of crossings of the ray from p towards +x with an arc, split at π/2 and 3π/2 (mod 2π). */
-function arcCrossings(s: ArcSegment, p: Point): number {
+/**
+ * Number of crossings of the ray from p towards +x with an arc, split at π/2 and 3π/2 (mod 2π).
+ * y0, y1: heights of the arc's start and end as the loop's vertices have them.
+ */
+function arcCrossings(s: ArcSegment, p: Point, y0: number, y1: number): number {
   const lo = Math.min(s.start, s.start + s.sweep);
   const hi = Math.max(s.start, s.start + s.sweep);
   // Angles where y is extremal: π/2 + kπ strictly inside (lo, hi).
   const cuts: number[] = [];
   for (let t = Math.PI / 2 + Math.PI * Math.ceil((lo - Math.PI / 2) / Math.PI); t < hi; t += Math.PI)
     if (t > lo) cuts.push(t);
-  // Arc ends come from pointOnArc, as for every other user of the arc, so shared vertices agree.
-  const ends = [pointOnArc(s, s.start), pointOnArc(s, s.start + s.sweep)];
-  const yLo = s.sweep >= 0 ? ends[0]!.y : ends[1]!.y;
-  const yHi = s.sweep >= 0 ? ends[1]!.y : ends[0]!.y;
+  const yLo = s.sweep >= 0 ? y0 : y1;
+  const yHi = s.sweep >= 0 ? y1 : y0;
   const ts = [lo, ...cuts, hi];
   let n = 0;
   for (let i = 0; i + 1 < ts.length; i++) {
     const t0 = ts[i]!;
     const t1 = ts[i + 1]!;
-    const y0 = i === 0 ? yLo : s.c.y + s.r * Math.sin(t0);
-    const y1 = i + 2 === ts.length ? yHi : s.c.y + s.r * Math.sin(t1);
-    if (crossesArcPiece(s, t0, t1, y0, y1, p)) n++;
+    const ya = i === 0 ? yLo : s.c.y + s.r * Math.sin(t0);
+    const yb = i + 2 === ts.length ? yHi : s.c.y + s.r * Math.sin(t1);
+    if (crossesArcPiece(s, t0, t1, ya, yb, p)) n++;
   }
   return n;
 }
 
-function crossings(seg: Segment, p: Point, tol: number): number {
-  if (seg.kind === 'line') return crossesLine(seg.a, seg.b, p) ? 1 : 0;
-  if (seg.kind === 'arc') return arcCrossings(seg, p);
-  // Elliptical arcs and splines: by their chords, fine enough for loops that do not touch.
+/** Crossings with an elliptical arc or spline, by its chords (fine enough for loops that do not touch). */
+function curveCrossings(seg: Segment, p: Point, y0: number, y1: number, tol: number): number {
   const pts = flattenSegment(seg, tol);
+  pts[0] = { x: pts[0]!.x, y: y0 };
+  pts[pts.length - 1] = { x: pts[pts.length - 1]!.x, y: y1 };
   let n = 0;
   for (let i = 0; i + 1 < pts.length; i++) if (crossesLine(pts[i]!, pts[i + 1]!, p)) n++;
   return n;
@@ -65,13 +66,23 @@ function crossings(seg: Segment, p: Point, tol: number): number {
 
 /**
  * Point-in-loop by the parity of crossings of a horizontal ray (half-open rule, exact for arcs).
+ * Each vertex is given one height, the start of the segment leaving it, on both of its sides: a
+ * computed arc end can differ from the next start by an ulp (sin 2π ≠ 0 leaves a full circle's end
+ * 6e-15·r below its start), and a ray passing between the two would miss the loop.
  * Points on the boundary may go either way.
  */
 export function pointInLoop(p: Point, loop: Loop): boolean {
   const b = loopBox(loop);
   const tol = 1e-7 * Math.max(b.xmax - b.xmin, b.ymax - b.ymin);
   let n = 0;
-  for (const s of loop) n += crossings(s, p, tol);
+  const starts = loop.map(startPoint);
+  loop.forEach((s, i) => {
+    const y0 = starts[i]!.y;
+    const y1 = starts[(i + 1) % loop.length]!.y;
+    if (s.kind === 'arc') n += arcCrossings(s, p, y0, y1);
+    else if (s.kind === 'line') n += crossesLine({ x: s.a.x, y: y0 }, { x: s.b.x, y: y1 }, p) ? 1 : 0;
+    else n += curveCrossings(s, p, y0, y1, tol);
+  });
   return n % 2 === 1;
 }
 

@@ -132,3 +132,15 @@ describe('nestLoops', () => {
     expectClose(regionMoments(region).a, 8 + Math.PI - Math.PI / 4 + 4 * Math.PI);
   });
 });
+
+describe('regressions', () => {
+  it('full circle from angle 0: a point a few ulps below its start height is inside (mx122 cavity)', () => {
+    // sin(2π) ≠ 0 leaves the computed end 6e-15·r below the start; the ray must still cross once.
+    const loop = circle(P(0, 0), 25);
+    for (const y of [-1e-15, -5e-15, 0, 5e-15, -1e-14]) expect(pointInLoop(P(20, y), loop)).toBe(true);
+    for (const y of [-1e-15, 0, 1e-15]) expect(pointInLoop(P(26, y), loop)).toBe(false);
+    // Reversed (start 2π, sweep −2π) and about an offset centre.
+    const rev = reverseLoop(circle(P(7, -3), 2));
+    for (const y of [-3 - 1e-15, -3, -3 + 1e-15]) expect(pointInLoop(P(8, y), rev)).toBe(true);
+  });
+});
