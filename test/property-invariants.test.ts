@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   arc,
+  ellipse,
   findCrossing,
   line,
   makeRegion,
@@ -53,6 +54,21 @@ const profile: fc.Arbitrary<Region> = fc.oneof(
   fc.record({ R: pos(20, 100), k: pos(0.1, 0.6), ex: pos(-0.3, 0.3), ey: pos(-0.3, 0.3) }).map(({ R, k, ex, ey }) =>
     makeRegion([{ outer: circleLoop(R), holes: [circleLoop(k * R, { x: ex * R, y: ey * R })] }]),
   ),
+  fc.record({ a: pos(20, 100), e: pos(0.2, 1), phi: pos(0, Math.PI), k: pos(0.1, 0.5) }).map(({ a, e, phi, k }) => {
+    // Elliptical tube: an ellipse with a concentric elliptical hole at a different angle.
+    const b = a * e;
+    const ax = (len: number, t: number) => ({ x: len * Math.cos(t), y: len * Math.sin(t) });
+    const ell = (p: number, q: number, t: number, dir: number) => [ellipse({ x: 0, y: 0 }, ax(p, t), ax(q, t + Math.PI / 2), 0, dir * 2 * Math.PI)];
+    return makeRegion([{ outer: ell(a, b, phi, 1), holes: [ell(k * b, k * b * 0.5, phi + 1, -1)] }]);
+  }),
+  fc.array(pos(0.85, 1), { minLength: 6, maxLength: 14 }).map((radii) => {
+    // Closed uniform cubic B-spline over a slightly perturbed circle of control points: a smooth, simple blob.
+    const n = radii.length;
+    const ctrl = radii.map((r, i) => ({ x: 50 * r * Math.cos((2 * Math.PI * i) / n), y: 50 * r * Math.sin((2 * Math.PI * i) / n), w: 1 }));
+    const controls = [...ctrl, ctrl[0]!, ctrl[1]!, ctrl[2]!];
+    const knots = Array.from({ length: controls.length + 4 }, (_, i) => i);
+    return makeRegion([{ outer: [{ kind: 'spline' as const, degree: 3, knots, controls }], holes: [] }]);
+  }),
 );
 
 /** Natural size of a property: its dimension's power of the radius of gyration times the area. */

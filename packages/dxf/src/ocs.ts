@@ -1,4 +1,4 @@
-import type { Similarity } from '@keelson/geometry';
+import type { Affine } from '@keelson/geometry';
 
 interface Vec3 {
   x: number;
@@ -33,7 +33,7 @@ const PLANAR = 1e-9;
  * identity for n = (0, 0, 1), the mirror x → −x for n = (0, 0, −1). Null when the entity's plane
  * is tilted, so its circles would project to ellipses. Missing components take the DXF defaults (0, 0, 1).
  */
-export function ocsToWorld(n: { x?: number; y?: number; z?: number }): Similarity | null {
+export function ocsToWorld(n: { x?: number; y?: number; z?: number }): Affine | null {
   const v = { x: n.x ?? 0, y: n.y ?? 0, z: n.z ?? 1 };
   const len = Math.hypot(v.x, v.y, v.z);
   if (!(len > 0) || Math.hypot(v.x, v.y) > PLANAR * len) return null;
@@ -41,4 +41,4 @@ export function ocsToWorld(n: { x?: number; y?: number; z?: number }): Similarit
   return { a: ax.x, b: ay.x, c: ax.y, d: ay.y, tx: 0, ty: 0 };
 }
 
-export const isIdentity = (t: Similarity): boolean => t.a === 1 && t.b === 0 && t.c === 0 && t.d === 1;
+export const isIdentity = (t: Affine): boolean => t.a === 1 && t.b === 0 && t.c === 0 && t.d === 1;

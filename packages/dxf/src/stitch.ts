@@ -1,4 +1,4 @@
-import { endPoint, line, pointOnArc, reverseSegment, segmentRange, startPoint, type Loop, type Point, type Segment } from '@keelson/geometry';
+import { endPoint, evalSegment, line, paramRange, reverseSegment, segmentRange, startPoint, type Loop, type Point, type Segment } from '@keelson/geometry';
 import type { Piece } from './entities';
 import type { EntitySource } from './scan';
 
@@ -86,8 +86,11 @@ function sameCurve(e: Edge, f: Edge, tol: number): boolean {
   const s = e.seg;
   const t = f.seg;
   if (s.kind === 'line' || t.kind === 'line') return s.kind === t.kind;
-  const mid = (a: typeof s) => pointOnArc(a, a.start + a.sweep / 2);
-  return dist(s.c, t.c) <= tol && Math.abs(s.r - t.r) <= tol && dist(mid(s), mid(t)) <= tol;
+  const mid = (a: Segment) => {
+    const [t0, t1] = paramRange(a);
+    return evalSegment(a, (t0 + t1) / 2).p;
+  };
+  return dist(mid(s), mid(t)) <= tol;
 }
 
 /**
@@ -104,7 +107,7 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
   const repOnArc = new Set<number>();
   ends.forEach((p, i) => {
     const k = cluster[i]!;
-    const onArc = pieces[i >> 1]!.seg.kind === 'arc';
+    const onArc = pieces[i >> 1]!.seg.kind !== 'line';
     if (rep.has(k) && (repOnArc.has(k) || !onArc)) return;
     rep.set(k, p);
     if (onArc) repOnArc.add(k);

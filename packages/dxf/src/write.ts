@@ -1,4 +1,14 @@
-import { GeometryError, TAU, startPoint, type Loop, type Point, type Region } from '@keelson/geometry';
+import {
+  GeometryError,
+  TAU,
+  isRational,
+  startPoint,
+  type EllipseSegment,
+  type Loop,
+  type Point,
+  type Region,
+  type SplineSegment,
+} from '@keelson/geometry';
 
 /** Drawing units the writer can declare in `$INSUNITS`. */
 export type DxfUnit = 'mm' | 'cm' | 'm' | 'in' | 'ft';
@@ -34,7 +44,18 @@ export type DxfEntity =
   | { readonly type: 'LINE'; readonly a: Point; readonly b: Point }
   | { readonly type: 'ARC'; readonly c: Point; readonly r: number; readonly startDeg: number; readonly endDeg: number }
   | { readonly type: 'CIRCLE'; readonly c: Point; readonly r: number }
-  | { readonly type: 'LWPOLYLINE'; readonly vertices: readonly DxfVertex[] };
+  | { readonly type: 'LWPOLYLINE'; readonly vertices: readonly DxfVertex[] }
+  | {
+      readonly type: 'ELLIPSE';
+      readonly c: Point;
+      /** Major semi-axis as a vector from the centre; the minor one is `ratio` times it turned +90°. */
+      readonly major: Point;
+      readonly ratio: number;
+      /** Parameters (radians) of the counter-clockwise run from start to end. */
+      readonly startParam: number;
+      readonly endParam: number;
+    }
+  | { readonly type: 'SPLINE'; readonly spline: SplineSegment };
 
 const DEG = 180 / Math.PI;
 
@@ -51,19 +72,52 @@ function fullCircle(loop: Loop): { c: Point; r: number } | null {
   return { c: s.c, r: s.r };
 }
 
+/**
+ * DXF states an ellipse by its major axis, the minor/major ratio and a counter-clockwise parameter
+ * run. Our conjugate semi-diameters must be perpendicular for that; the parameter is shifted a
+ * quarter turn when v is the longer one, and negated when the frame is mirrored.
+ */
+function ellipseEntity(s: EllipseSegment): DxfEntity {
+  const lu = Math.hypot(s.u.x, s.u.y);
+  const lv = Math.hypot(s.v.x, s.v.y);
+  if (Math.abs(s.u.x * s.v.x + s.u.y * s.v.y) > 1e-12 * lu * lv)
+    throw new GeometryError('INVALID_SEGMENT', 'DXF ELLIPSE needs perpendicular axes; this elliptical arc is sheared');
+  // p = c + u cos t + v sin t = c + v cos(t − π/2) − u sin(t − π/2)
+  const [major, minor, shift] = lu >= lv ? [s.u, s.v, 0] : [s.v, { x: -s.u.x, y: -s.u.y }, -Math.PI / 2];
+  const mirrored = major.x * minor.y - major.y * minor.x < 0;
+  let start = s.start + shift;
+  let sweep = s.sweep;
+  if (mirrored) {
+    start = -start;
+    sweep = -sweep;
+  }
+  if (sweep < 0) {
+    start += sweep;
+    sweep = -sweep;
+  }
+  const full = Math.abs(sweep - TAU) <= 1e-12 * TAU;
+  const a = full ? 0 : ((start % TAU) + TAU) % TAU;
+  return { type: 'ELLIPSE', c: s.c, major, ratio: Math.min(lu, lv) / Math.max(lu, lv), startParam: a, endParam: full ? TAU : a + sweep };
+}
+
+function curveEntity(s: Loop[number]): DxfEntity {
+  if (s.kind === 'line') return { type: 'LINE', a: s.a, b: s.b };
+  if (s.kind === 'ellipse') return ellipseEntity(s);
+  if (s.kind === 'spline') return { type: 'SPLINE', spline: s };
+  // A clockwise arc is the counter-clockwise arc from its end to its start.
+  const [from, to] = s.sweep > 0 ? [s.start, s.start + s.sweep] : [s.start + s.sweep, s.start];
+  return { type: 'ARC', c: s.c, r: s.r, startDeg: degrees(from), endDeg: degrees(to) };
+}
+
 function loopEntities(loop: Loop, style: DxfStyle): DxfEntity[] {
   const circle = fullCircle(loop);
   if (circle) return [{ type: 'CIRCLE', ...circle }];
-  if (style === 'polyline') {
+  // LWPOLYLINE holds only lines and circular arcs; loops with other curves are written loose.
+  if (style === 'polyline' && loop.every((s) => s.kind === 'line' || s.kind === 'arc')) {
     const vertices = loop.map((s) => ({ ...startPoint(s), bulge: s.kind === 'arc' ? Math.tan(s.sweep / 4) : 0 }));
     return [{ type: 'LWPOLYLINE', vertices }];
   }
-  return loop.map((s): DxfEntity => {
-    if (s.kind === 'line') return { type: 'LINE', a: s.a, b: s.b };
-    // A clockwise arc is the counter-clockwise arc from its end to its start.
-    const [from, to] = s.sweep > 0 ? [s.start, s.start + s.sweep] : [s.start + s.sweep, s.start];
-    return { type: 'ARC', c: s.c, r: s.r, startDeg: degrees(from), endDeg: degrees(to) };
-  });
+  return loop.map(curveEntity);
 }
 
 /**
@@ -136,6 +190,21 @@ function writeEntity(t: Tags, e: DxfEntity, layer: string): void {
         if (v.bulge !== 0) t.tag(42, v.bulge);
       }
       return;
+    case 'ELLIPSE':
+      t.tag(100, 'AcDbEllipse').point(10, e.c).point(11, e.major).tag(40, e.ratio).tag(41, e.startParam).tag(42, e.endParam);
+      return;
+    case 'SPLINE': {
+      const { degree, knots, controls } = e.spline;
+      const rational = isRational(e.spline);
+      // Flags: 8 planar, 4 rational.
+      t.tag(100, 'AcDbSpline').tag(70, 8 + (rational ? 4 : 0)).tag(71, degree).tag(72, knots.length).tag(73, controls.length).tag(74, 0);
+      for (const k of knots) t.tag(40, k);
+      for (const c of controls) {
+        t.point(10, c);
+        if (rational) t.tag(41, c.w);
+      }
+      return;
+    }
   }
 }
 

@@ -8,6 +8,7 @@ import {
   line,
   makeRegion,
   pointOnArc,
+  reverseSegment,
   regionBox,
   sectionProperties,
   signedLoopArea,
@@ -132,6 +133,7 @@ function decode(text: string): Region {
 function polygonOf(loop: Loop): Point[] {
   return loop.flatMap((s) => {
     if (s.kind === 'line') return [s.a];
+    if (s.kind !== 'arc') throw new Error('the demo catalogue draws lines and circular arcs only');
     const n = Math.max(2, Math.ceil((Math.abs(s.sweep) / (2 * Math.PI)) * 4096));
     return Array.from({ length: n }, (_, i) => pointOnArc(s, s.start + (s.sweep * i) / n));
   });
@@ -180,8 +182,7 @@ function bulgeSegment(p: Point, q: Point, b: number): Segment {
   return arc(c, Math.abs(L / (2 * Math.sin(theta / 2))), Math.atan2(p.y - c.y, p.x - c.x), theta);
 }
 
-const reverse = (s: Segment): Segment =>
-  s.kind === 'line' ? line(s.b, s.a) : arc(s.c, s.r, s.start + s.sweep, -s.sweep);
+const reverse = reverseSegment;
 
 function stitch(segs: Segment[]): Loop[] {
   const near = (p: Point, q: Point) => Math.hypot(p.x - q.x, p.y - q.y) <= 1e-9 * (1 + Math.abs(p.x) + Math.abs(p.y));

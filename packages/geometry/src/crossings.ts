@@ -1,14 +1,27 @@
-import { arcContainsAngle, endPoint, startPoint } from './segment';
+import { flattenSegment } from './flatten';
+import { arcContainsAngle, endPoint, line, startPoint } from './segment';
 import { segmentRange } from './extent';
 import { allLoops } from './region';
 import type { ArcSegment, LineSegment, Point, Region, Segment } from './types';
 
 /** Points where two segments meet (for overlapping collinear pieces, the ends of the overlap). */
-function meet(s: Segment, t: Segment, tol: number): Point[] {
+function meet(s: LineSegment | ArcSegment, t: LineSegment | ArcSegment, tol: number): Point[] {
   if (s.kind === 'line' && t.kind === 'line') return lineLine(s, t, tol);
   if (s.kind === 'line') return lineArc(s, t as ArcSegment, tol);
   if (t.kind === 'line') return lineArc(t, s, tol);
   return arcArc(s, t, tol);
+}
+
+/**
+ * Lines and circular arcs are tested exactly; elliptical arcs and splines by their chords within
+ * 1e-6 of their size (a topology test needs no more, and keeps the number of pieces small).
+ */
+function pieces(s: Segment, tol: number): (LineSegment | ArcSegment)[] {
+  if (s.kind === 'line' || s.kind === 'arc') return [s];
+  const box = [0, 1].map((k) => segmentRange(s, 1 - k, k, { x: 0, y: 0 }));
+  const size = Math.max(...box.map(([a, b]) => b - a));
+  const pts = flattenSegment(s, Math.max(tol, 1e-6 * size));
+  return pts.slice(1).map((p, i) => line(pts[i]!, p));
 }
 
 function lineLine(s: LineSegment, t: LineSegment, tol: number): Point[] {
@@ -92,7 +105,7 @@ function arcArc(s: ArcSegment, t: ArcSegment, tol: number): Point[] {
 }
 
 interface Entry {
-  seg: Segment;
+  seg: LineSegment | ArcSegment;
   loop: number;
   index: number;
   size: number;
@@ -109,20 +122,24 @@ export interface Crossing {
 }
 
 /**
- * First place where the region's boundary meets itself other than at the joint of two consecutive
- * segments: crossing or touching loops, a self-intersecting outline, overlapping edges. A sweep over
- * x-sorted bounding boxes keeps it near n log n for ordinary drawings.
+ * Places where the region's boundary meets itself other than at the joint of two consecutive
+ * segments: crossing or touching loops, a self-intersecting outline, overlapping edges — at most
+ * one per pair of loops, up to `limit` of them. A sweep over x-sorted bounding boxes keeps it near
+ * n log n for ordinary drawings.
  */
-export function findCrossing(region: Region, tol: number): Crossing | null {
+export function findCrossings(region: Region, tol: number, limit = Infinity): Crossing[] {
+  const found: Crossing[] = [];
+  const seen = new Set<string>();
   const entries: Entry[] = [];
-  allLoops(region).forEach((loop, li) =>
-    loop.forEach((seg, i) => {
+  allLoops(region).forEach((loop, li) => {
+    const expanded = loop.flatMap((s) => pieces(s, tol));
+    expanded.forEach((seg, i) => {
       const o = { x: 0, y: 0 };
       const [xmin, xmax] = segmentRange(seg, 1, 0, o);
       const [ymin, ymax] = segmentRange(seg, 0, 1, o);
-      entries.push({ seg, loop: li, index: i, size: loop.length, xmin, xmax, ymin, ymax });
-    }),
-  );
+      entries.push({ seg, loop: li, index: i, size: expanded.length, xmin, xmax, ymin, ymax });
+    });
+  });
   entries.sort((p, q) => p.xmin - q.xmin);
   const active: Entry[] = [];
   for (const e of entries) {
@@ -137,9 +154,19 @@ export function findCrossing(region: Region, tol: number): Crossing | null {
         if ((f.index + 1) % f.size === e.index) joints.push(endPoint(f.seg));
       }
       const bad = pts.find((p) => !joints.some((j) => Math.hypot(p.x - j.x, p.y - j.y) <= tol * 4));
-      if (bad) return { at: bad, loops: [f.loop, e.loop] };
+      const key = `${Math.min(e.loop, f.loop)}:${Math.max(e.loop, f.loop)}`;
+      if (bad && !seen.has(key)) {
+        seen.add(key);
+        found.push({ at: bad, loops: [Math.min(e.loop, f.loop), Math.max(e.loop, f.loop)] });
+        if (found.length >= limit) return found;
+      }
     }
     active.push(e);
   }
-  return null;
+  return found;
+}
+
+/** The first place where the boundary meets itself, or null for a clean region. */
+export function findCrossing(region: Region, tol: number): Crossing | null {
+  return findCrossings(region, tol, 1)[0] ?? null;
 }

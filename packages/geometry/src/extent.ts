@@ -1,4 +1,4 @@
-import { arcContainsAngle, endPoint, pointOnArc, startPoint } from './segment';
+import { arcContainsAngle, endPoint, evalSegment, pointOnArc, pointOnEllipse, smoothBreaks, startPoint } from './segment';
 import type { Loop, Point, Region, Segment } from './types';
 
 export interface Box {
@@ -22,8 +22,66 @@ export function segmentRange(s: Segment, dx: number, dy: number, o: Point): [num
   if (s.kind === 'arc') {
     if (arcContainsAngle(s, psi)) hi = Math.max(hi, proj(pointOnArc(s, psi)));
     if (arcContainsAngle(s, psi + Math.PI)) lo = Math.min(lo, proj(pointOnArc(s, psi + Math.PI)));
+  } else if (s.kind === 'ellipse') {
+    // (p − o)·d = const + (u·d) cos t + (v·d) sin t is extreme at t = atan2(v·d, u·d) and that + π.
+    const t = Math.atan2(s.v.x * dx + s.v.y * dy, s.u.x * dx + s.u.y * dy);
+    if (arcContainsAngle(s, t)) hi = Math.max(hi, proj(pointOnEllipse(s, t)));
+    if (arcContainsAngle(s, t + Math.PI)) lo = Math.min(lo, proj(pointOnEllipse(s, t + Math.PI)));
+  } else if (s.kind === 'spline') {
+    [lo, hi] = splineRange(s, proj, lo, hi);
   }
   return [lo, hi];
+}
+
+/**
+ * Extremes of a projection over a spline: sampled on each knot span, each local extreme then
+ * refined by golden-section search to the parameter's rounding, so the extreme value is exact to
+ * rounding (it is stationary there).
+ */
+function splineRange(s: Segment, proj: (p: Point) => number, lo: number, hi: number): [number, number] {
+  const f = (t: number) => proj(evalSegment(s, t).p);
+  // One run of samples over all knot spans, so an extreme next to a knot is bracketed too.
+  const br = smoothBreaks(s);
+  const N = 32;
+  const ts: number[] = [br[0]!];
+  for (let i = 0; i + 1 < br.length; i++)
+    for (let k = 1; k <= N; k++) ts.push(k === N ? br[i + 1]! : br[i]! + ((br[i + 1]! - br[i]!) * k) / N);
+  const vs = ts.map(f);
+  for (const v of vs) {
+    lo = Math.min(lo, v);
+    hi = Math.max(hi, v);
+  }
+  for (let k = 1; k + 1 < ts.length; k++) {
+    const v = vs[k]!;
+    if (v >= vs[k - 1]! && v >= vs[k + 1]!) hi = Math.max(hi, golden(f, ts[k - 1]!, ts[k + 1]!, 1));
+    if (v <= vs[k - 1]! && v <= vs[k + 1]!) lo = Math.min(lo, golden(f, ts[k - 1]!, ts[k + 1]!, -1));
+  }
+  return [lo, hi];
+}
+
+/** Largest (sign 1) or smallest (sign −1) value of f on [a, b] by golden-section search. */
+function golden(f: (t: number) => number, a: number, b: number, sign: number): number {
+  const g = (Math.sqrt(5) - 1) / 2;
+  let x1 = b - g * (b - a);
+  let x2 = a + g * (b - a);
+  let f1 = sign * f(x1);
+  let f2 = sign * f(x2);
+  for (let i = 0; i < 80 && b - a > 0; i++) {
+    if (f1 > f2) {
+      b = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = b - g * (b - a);
+      f1 = sign * f(x1);
+    } else {
+      a = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = a + g * (b - a);
+      f2 = sign * f(x2);
+    }
+  }
+  return sign * Math.max(f1, f2, sign * f(a), sign * f(b));
 }
 
 /** Range of (p − o)·d over the whole boundary: distances from o to the extreme fibres along d. */

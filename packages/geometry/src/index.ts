@@ -1,10 +1,26 @@
-export type { ArcSegment, LineSegment, Loop, Part, Point, Region, Segment } from './types';
+export type {
+  ArcSegment,
+  EllipseSegment,
+  LineSegment,
+  Loop,
+  Part,
+  Point,
+  Region,
+  Segment,
+  SplineSegment,
+  WeightedPoint,
+} from './types';
 export { GeometryError, type GeometryErrorCode } from './errors';
 export {
   TAU,
   arc,
   arcFromCentre,
   arcContainsAngle,
+  ellipse,
+  evalSegment,
+  paramRange,
+  pointOnEllipse,
+  smoothBreaks,
   applyToPoint,
   endPoint,
   line,
@@ -13,7 +29,7 @@ export {
   segmentLength,
   startPoint,
   transformSegment,
-  type Similarity,
+  type Affine,
 } from './segment';
 export { loopMoments, regionMoments, type RawMoments } from './moments';
 export { loopBox, regionBox, regionRange, segmentRange, type Box } from './extent';
@@ -46,4 +62,6 @@ export {
   type OutputUnit,
 } from './units';
 export { nestLoops, pointInLoop } from './nest';
-export { findCrossing, type Crossing } from './crossings';
+export { findCrossing, findCrossings, type Crossing } from './crossings';
+export { flattenSegment } from './flatten';
+export { isRational, splineDomain } from './spline';

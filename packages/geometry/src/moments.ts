@@ -1,6 +1,8 @@
 import { CompensatedSum } from './sum';
-import { pointOnArc } from './segment';
-import type { ArcSegment, Loop, Point, Region, Segment } from './types';
+import { integrate, integrateAdaptive } from './quadrature';
+import { evalSegment, pointOnArc, pointOnEllipse, smoothBreaks } from './segment';
+import { isRational } from './spline';
+import type { ArcSegment, EllipseSegment, Loop, Point, Region, Segment, SplineSegment } from './types';
 
 /**
  * Area moments up to second order about a reference point o:
@@ -75,9 +77,84 @@ function addArc(acc: Acc, s: ArcSegment, o: Point): void {
   );
 }
 
+/**
+ * An elliptical arc is the affine image p = c + M·q (M = [u v]) of a unit-circle arc: its chord plus
+ * the image of the unit circular segment, whose moments transform as ∫p dA = det M·(c·a + M·m) and
+ * ∫p pᵀ dA = det M·(c cᵀ a + c (Mm)ᵀ + (Mm) cᵀ + M S Mᵀ), with a, m, S the unit segment's moments.
+ */
+function addEllipse(acc: Acc, s: EllipseSegment, o: Point): void {
+  const p = pointOnEllipse(s, s.start);
+  const q = pointOnEllipse(s, s.start + s.sweep);
+  addEdge(acc, p.x - o.x, p.y - o.y, q.x - o.x, q.y - o.y);
+  const seg = circularSegment(1, Math.abs(s.sweep) / 2);
+  const phi = s.start + s.sweep / 2;
+  const cf = Math.cos(phi);
+  const sf = Math.sin(phi);
+  const sxx = seg.uu * cf * cf + seg.vv * sf * sf;
+  const syy = seg.uu * sf * sf + seg.vv * cf * cf;
+  const sxy = (seg.uu - seg.vv) * sf * cf;
+  const { u, v } = s;
+  const k = Math.sign(s.sweep) * (u.x * v.y - u.y * v.x);
+  // M·m with m = seg.u·(cos φ, sin φ)
+  const mx = seg.u * (u.x * cf + v.x * sf);
+  const my = seg.u * (u.y * cf + v.y * sf);
+  // M S Mᵀ
+  const xx = u.x * u.x * sxx + 2 * u.x * v.x * sxy + v.x * v.x * syy;
+  const yy = u.y * u.y * sxx + 2 * u.y * v.y * sxy + v.y * v.y * syy;
+  const xy = u.x * u.y * sxx + (u.x * v.y + v.x * u.y) * sxy + v.x * v.y * syy;
+  const cx = s.c.x - o.x;
+  const cy = s.c.y - o.y;
+  acc[0].add(k * seg.a);
+  acc[1].add(k * (cx * seg.a + mx));
+  acc[2].add(k * (cy * seg.a + my));
+  acc[3].add(k * (cx * cx * seg.a + 2 * cx * mx + xx));
+  acc[4].add(k * (cy * cy * seg.a + 2 * cy * my + yy));
+  acc[5].add(k * (cx * cy * seg.a + cx * my + cy * mx + xy));
+}
+
+/**
+ * A spline contributes the moments of the fan from o to the curve, with κ = x·y' − y·x':
+ * dA = κ/2, x dA = xκ/3, y dA = yκ/3, x² dA = x²κ/4, y² dA = y²κ/4, xy dA = xyκ/4 per unit parameter —
+ * the same forms the straight-edge formulas integrate exactly. For a polynomial spline of degree
+ * p ≤ 8 the integrands are polynomials of degree ≤ 4p − 1 ≤ 31 on each knot span, which the 16-point
+ * Gauss–Legendre rule integrates exactly; rational or higher-degree splines are integrated
+ * adaptively to 1e-14 of the contribution's natural size.
+ */
+function addSpline(acc: Acc, s: SplineSegment, o: Point): void {
+  const f = (t: number, out: Float64Array) => {
+    const { p, d } = evalSegment(s, t);
+    const x = p.x - o.x;
+    const y = p.y - o.y;
+    const kap = x * d.y - y * d.x;
+    out[0] = kap / 2;
+    out[1] = (x * kap) / 3;
+    out[2] = (y * kap) / 3;
+    out[3] = (x * x * kap) / 4;
+    out[4] = (y * y * kap) / 4;
+    out[5] = (x * y * kap) / 4;
+  };
+  const br = smoothBreaks(s);
+  const exact = !isRational(s) && s.degree <= 8;
+  let L = 0;
+  for (const c of s.controls) L = Math.max(L, Math.abs(c.x - o.x), Math.abs(c.y - o.y));
+  const floor = [L ** 2, L ** 3, L ** 3, L ** 4, L ** 4, L ** 4];
+  for (let i = 0; i + 1 < br.length; i++) {
+    const r = exact ? integrate(f, br[i]!, br[i + 1]!, 6) : integrateAdaptive(f, br[i]!, br[i + 1]!, 6, floor);
+    for (let k = 0; k < 6; k++) acc[k as 0]!.add(r[k]!);
+  }
+}
+
 function addSegment(acc: Acc, s: Segment, o: Point): void {
-  if (s.kind === 'line') addEdge(acc, s.a.x - o.x, s.a.y - o.y, s.b.x - o.x, s.b.y - o.y);
-  else addArc(acc, s, o);
+  switch (s.kind) {
+    case 'line':
+      return addEdge(acc, s.a.x - o.x, s.a.y - o.y, s.b.x - o.x, s.b.y - o.y);
+    case 'arc':
+      return addArc(acc, s, o);
+    case 'ellipse':
+      return addEllipse(acc, s, o);
+    case 'spline':
+      return addSpline(acc, s, o);
+  }
 }
 
 function newAcc(): Acc {

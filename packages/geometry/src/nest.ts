@@ -1,7 +1,8 @@
 import { loopBox, type Box } from './extent';
 import { makeRegion, signedLoopArea } from './region';
 import { GeometryError } from './errors';
-import { pointOnArc, startPoint } from './segment';
+import { flattenSegment } from './flatten';
+import { evalSegment, paramRange, segmentLength, startPoint } from './segment';
 import type { ArcSegment, Loop, Point, Region, Segment } from './types';
 
 /**
@@ -53,6 +54,22 @@ function arcCrossings(s: ArcSegment, p: Point, y0: number, y1: number): number {
   return n;
 }
 
+/** Chord tolerance for curves in containment tests: 1e-7 of the loop's size. */
+function curveTolerance(loop: Loop): number {
+  const b = loopBox(loop);
+  return 1e-7 * Math.max(b.xmax - b.xmin, b.ymax - b.ymin);
+}
+
+/** Crossings with an elliptical arc or spline, by its chords (fine enough for loops that do not touch). */
+function curveCrossings(seg: Segment, p: Point, y0: number, y1: number, tol: number): number {
+  const pts = flattenSegment(seg, tol);
+  pts[0] = { x: pts[0]!.x, y: y0 };
+  pts[pts.length - 1] = { x: pts[pts.length - 1]!.x, y: y1 };
+  let n = 0;
+  for (let i = 0; i + 1 < pts.length; i++) if (crossesLine(pts[i]!, pts[i + 1]!, p)) n++;
+  return n;
+}
+
 /**
  * Point-in-loop by the parity of crossings of a horizontal ray (half-open rule, exact for arcs).
  * Each vertex is given one height, the start of the segment leaving it, on both of its sides: a
@@ -69,12 +86,14 @@ const vertexHeights = (loop: Loop): Float64Array => Float64Array.from(loop, (s) 
 
 function inside(p: Point, loop: Loop, ys: Float64Array): boolean {
   let n = 0;
+  let tol = 0;
   for (let i = 0; i < loop.length; i++) {
     const s = loop[i]!;
     const y0 = ys[i]!;
     const y1 = ys[(i + 1) % loop.length]!;
     if (s.kind === 'arc') n += arcCrossings(s, p, y0, y1);
-    else if (y0 > p.y !== y1 > p.y && crossesLine({ x: s.a.x, y: y0 }, { x: s.b.x, y: y1 }, p)) n++;
+    else if (s.kind === 'line') n += y0 > p.y !== y1 > p.y && crossesLine({ x: s.a.x, y: y0 }, { x: s.b.x, y: y1 }, p) ? 1 : 0;
+    else n += curveCrossings(s, p, y0, y1, tol || (tol = curveTolerance(loop)));
   }
   return n % 2 === 1;
 }
@@ -84,15 +103,14 @@ function samplePoint(loop: Loop): Point {
   let best: Segment = loop[0]!;
   let bestLen = -1;
   for (const s of loop) {
-    const len =
-      s.kind === 'line' ? Math.hypot(s.b.x - s.a.x, s.b.y - s.a.y) : s.r * Math.abs(s.sweep);
+    const len = segmentLength(s);
     if (len > bestLen) {
       best = s;
       bestLen = len;
     }
   }
-  if (best.kind === 'arc') return pointOnArc(best, best.start + best.sweep / 2);
-  return { x: (best.a.x + best.b.x) / 2, y: (best.a.y + best.b.y) / 2 };
+  const [t0, t1] = paramRange(best);
+  return evalSegment(best, (t0 + t1) / 2).p;
 }
 
 const boxInside = (inner: Box, outer: Box): boolean =>

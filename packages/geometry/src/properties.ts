@@ -2,7 +2,8 @@ import { GeometryError } from './errors';
 import { regionBox, regionRange } from './extent';
 import { regionMoments } from './moments';
 import { plasticAboutHorizontal } from './plastic';
-import { perimeter, transformRegion } from './region';
+import { perimeter } from './region';
+import { transformSegment } from './segment';
 import type { Region } from './types';
 
 /**
@@ -79,7 +80,15 @@ export function sectionProperties(region: Region): SectionProperties {
   const [n2lo, n2hi] = regionRange(region, Math.cos(thetaRad), Math.sin(thetaRad), c);
 
   const px = plasticAboutHorizontal(region, c, m.a);
-  const py = plasticAboutHorizontal(transformRegion(region, { ...QUARTER_TURN, tx: -cy, ty: cx }), { x: 0, y: 0 }, m.a);
+  // A rotation keeps every loop valid and oriented: map the segments without re-checking them.
+  const turn = { ...QUARTER_TURN, tx: -cy, ty: cx };
+  const turned = {
+    parts: region.parts.map((p) => ({
+      outer: p.outer.map((s) => transformSegment(turn, s)),
+      holes: p.holes.map((h) => h.map((s) => transformSegment(turn, s))),
+    })),
+  };
+  const py = plasticAboutHorizontal(turned, { x: 0, y: 0 }, m.a);
   const Sx_top = Ix / yhi;
   const Sx_bottom = Ix / -ylo;
   const Sy_right = Iy / xhi;

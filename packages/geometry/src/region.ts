@@ -7,7 +7,7 @@ import {
   segmentLength,
   startPoint,
   transformSegment,
-  type Similarity,
+  type Affine,
 } from './segment';
 import type { Loop, Part, Region } from './types';
 import { loopBox } from './extent';
@@ -79,7 +79,7 @@ export function segmentCount(region: Region): number {
 }
 
 /** Maps every loop through a similarity and restores orientation (a mirror reverses it). */
-export function transformRegion(region: Region, t: Similarity): Region {
+export function transformRegion(region: Region, t: Affine): Region {
   return makeRegion(
     region.parts.map((p) => ({
       outer: p.outer.map((s) => transformSegment(t, s)),
@@ -88,12 +88,12 @@ export function transformRegion(region: Region, t: Similarity): Region {
   );
 }
 
-export const translation = (dx: number, dy: number): Similarity => ({ a: 1, b: 0, c: 0, d: 1, tx: dx, ty: dy });
-export const rotation = (phi: number): Similarity => {
+export const translation = (dx: number, dy: number): Affine => ({ a: 1, b: 0, c: 0, d: 1, tx: dx, ty: dy });
+export const rotation = (phi: number): Affine => {
   const c = Math.cos(phi);
   const s = Math.sin(phi);
   return { a: c, b: -s, c: s, d: c, tx: 0, ty: 0 };
 };
-export const scaling = (k: number): Similarity => ({ a: k, b: 0, c: 0, d: k, tx: 0, ty: 0 });
+export const scaling = (k: number): Affine => ({ a: k, b: 0, c: 0, d: k, tx: 0, ty: 0 });
 /** Mirror in the y-axis (x → −x). */
-export const mirrorX: Similarity = { a: -1, b: 0, c: 0, d: 1, tx: 0, ty: 0 };
+export const mirrorX: Affine = { a: -1, b: 0, c: 0, d: 1, tx: 0, ty: 0 };

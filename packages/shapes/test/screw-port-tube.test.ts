@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   endPoint,
+  evalSegment,
+  paramRange,
   findCrossing,
   sectionProperties,
   startPoint,
@@ -12,13 +14,10 @@ import { expectClose } from './close';
 
 /** Unit tangent in the direction of travel at the start (u = 0) or end (u = 1) of a segment. */
 function tangent(s: Segment, u: 0 | 1): Point {
-  if (s.kind === 'line') {
-    const l = Math.hypot(s.b.x - s.a.x, s.b.y - s.a.y);
-    return { x: (s.b.x - s.a.x) / l, y: (s.b.y - s.a.y) / l };
-  }
-  const t = s.start + u * s.sweep;
-  const k = Math.sign(s.sweep);
-  return { x: -Math.sin(t) * k, y: Math.cos(t) * k };
+  const [t0, t1] = paramRange(s);
+  const { d } = evalSegment(s, u ? t1 : t0);
+  const l = Math.hypot(d.x, d.y) * Math.sign(t1 - t0);
+  return { x: d.x / l, y: d.y / l };
 }
 
 /** Area common to two discs of radii r, R with centres d apart — Weisstein, MathWorld "Circle-Circle Intersection" (from memory). */

@@ -1,4 +1,4 @@
-import { regionBox, type Region, type Segment } from '@keelson/geometry';
+import { flattenSegment, line, regionBox, type ArcSegment, type LineSegment, type Region, type Segment } from '@keelson/geometry';
 
 /**
  * Meshing and solving run in a normalised frame: x' = (x − ox)/s, y' = (y − oy)/s with (ox, oy)
@@ -43,7 +43,14 @@ export function frameOf(region: Region): Frame {
 export function curvesOf(region: Region, f: Frame): { curves: Curve[]; loops: number[][] } {
   const curves: Curve[] = [];
   const loops: number[][] = [];
-  const add = (loop: readonly Segment[]) => {
+  const add = (drawn: readonly Segment[]) => {
+    // Elliptical arcs and splines enter the mesh as chords within 1e-7 of the section's size,
+    // far below the finite-element error the solver states.
+    const loop = drawn.flatMap((seg): (LineSegment | ArcSegment)[] => {
+      if (seg.kind === 'line' || seg.kind === 'arc') return [seg];
+      const pts = flattenSegment(seg, 1e-7 * f.s);
+      return pts.slice(1).map((p, i) => line(pts[i]!, p));
+    });
     const first = curves.length;
     const n = loop.length;
     const li = loops.length;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { applyToPoint, rotation, scaling, transformRegion, translation, type Similarity } from '@keelson/geometry';
+import { applyToPoint, rotation, scaling, transformRegion, translation, type Affine } from '@keelson/geometry';
 import { channel } from '@keelson/shapes';
 import { TorsionError, torsionProperties } from '../src';
 import { rel } from './helpers';
@@ -11,7 +11,7 @@ describe('invariance under rigid motions and scaling', () => {
   const ref = torsionProperties(base);
   const size = 60;
 
-  const compose = (t: Similarity, s: Similarity): Similarity => ({
+  const compose = (t: Affine, s: Affine): Affine => ({
     a: t.a * s.a + t.b * s.c,
     b: t.a * s.b + t.b * s.d,
     c: t.c * s.a + t.d * s.c,

@@ -1,0 +1,2 @@
+export { ArchiveError, type ArchiveErrorCode } from './errors';
+export { DEFAULT_ZIP_LIMITS, readZipCatalogue, type ZipCatalogue, type ZipDrawing, type ZipLimits } from './zip';
