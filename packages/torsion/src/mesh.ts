@@ -10,8 +10,12 @@ export interface MeshParams {
   readonly hmax: number;
   /** Elements across a thin wall (the local feature size is divided by this). */
   readonly across: number;
-  /** Largest angle an arc may turn through along one boundary edge (radians). */
-  readonly thetaMax: number;
+  /**
+   * Largest gap allowed between a curved quadratic boundary side and its arc. A side turning
+   * through θ on radius r strays by about 0.00195·r·θ⁴ (the quadratic through both ends and the
+   * middle of the arc; computed), so arcs are split to θ ≤ (sagitta / 0.00195r)^¼, at most π/4.
+   */
+  readonly sagitta: number;
   /** Growth of the element size per unit distance from where it is small. */
   readonly grading: number;
   /** Smallest angle wanted in any triangle (degrees), except at input corners sharper than it. */
@@ -190,7 +194,7 @@ function facingSizes(B: Boundary, p: MeshParams): number {
           best = d;
         }
     let want = Math.min(B.want[v]!, best / p.across);
-    if (c.arc) want = Math.min(want, c.r * p.thetaMax);
+    if (c.arc) want = Math.min(want, c.r * arcStep(c.r, p));
     B.want[v] = want;
     if (len > want * 1.05) {
       B.split(v, Math.ceil(len / want));
@@ -198,6 +202,11 @@ function facingSizes(B: Boundary, p: MeshParams): number {
     }
   }
   return splits;
+}
+
+/** Largest angle one boundary side may turn through on an arc of radius r. */
+export function arcStep(r: number, p: MeshParams): number {
+  return Math.min(Math.PI / 4, Math.pow(p.sagitta / (0.00195 * r), 0.25));
 }
 
 /** Interior angle of the solid at the start of curve c (between the previous curve's end and c's start). */
@@ -284,7 +293,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
   // Arcs first, to the angle bound, so that facing distances are measured between good chords.
   for (const v of [...B.subsegments()]) {
     const c = curves[B.curve[v]!]!;
-    const n = Math.max(1, Math.ceil(curveLength(c) / p.hmax - 1e-9), c.arc ? Math.ceil(Math.abs(c.sweep) / p.thetaMax - 1e-9) : 1);
+    const n = Math.max(1, Math.ceil(curveLength(c) / p.hmax - 1e-9), c.arc ? Math.ceil(Math.abs(c.sweep) / arcStep(c.r, p) - 1e-9) : 1);
     if (n > 1) B.split(v, n);
   }
   for (let pass = 0; pass < 8 && facingSizes(B, p) > 0; pass++);

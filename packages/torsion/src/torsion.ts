@@ -47,8 +47,8 @@ export function meshParams(target: number): MeshParams {
   const k = Math.pow(target / 1e-3, 0.25);
   return {
     hmax: Math.min(0.35, 0.25 * k),
-    across: Math.max(2, Math.min(6, 2 / Math.sqrt(k))),
-    thetaMax: Math.min(Math.PI / 8, (Math.PI / 12) * k),
+    across: Math.max(1, Math.min(6, 1 / Math.sqrt(k))),
+    sagitta: 2.5e-5 * k ** 4,
     grading: 0.4,
     minAngle: 20,
     cornerFactor: 0.25,
@@ -94,7 +94,7 @@ export function torsionProperties(region: Region, opts: TorsionOptions = {}): To
   const maxNodes = opts.maxNodes ?? 400_000;
   if (!(target > 0 && target < 1)) throw new TorsionError('INVALID_OPTION', `target ${target} is not in (0, 1)`);
   const { mesh, frame } = baseMesh(region, target);
-  const pTheory = Math.min(4, (2 * Math.PI) / mesh.reentrant);
+  const pTheory = mesh.reentrant > Math.PI ? Math.min(4, (2 * Math.PI) / mesh.reentrant) : 4;
 
   const levels: Level[] = [quadratic(mesh)];
   const results: LevelResult[] = [solveWarping(levels[0]!.quad, null, 1e-9)];

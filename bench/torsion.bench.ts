@@ -1,0 +1,71 @@
+/**
+ * Time of the full torsion set (`torsionProperties`: mesh, two or more quadratic levels, J, shear
+ * centre, Cw, Richardson estimate) of a typical extrusion profile at the default target (1e-3 on J):
+ * a finned heat sink with about 500 boundary segments (lines and fillet arcs) and two screw holes.
+ * Not a test: prints figures, asserts nothing. Run with `pnpm bench:torsion` (one core: the work
+ * is single-threaded).
+ */
+import { cpus } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { arc, makeRegion, sectionProperties, segmentCount, type Region } from '@keelson/geometry';
+import { filletedPolygon, type Corner } from '@keelson/shapes';
+import { torsionProperties, type TorsionProperties } from '@keelson/torsion';
+
+/**
+ * Heat sink: base plate w × tb with `fins` fins (thickness tf, height hf) on top and `ribs` short
+ * ribs underneath, every corner filleted (root radius rr, tip radius rt), and two round holes
+ * (screw ports) in the base. Units: mm.
+ */
+export function extrusion(fins = 30, ribs = 30): Region {
+  const tb = 10;
+  const tf = 2.5;
+  const pitch = 7;
+  const hf = 35;
+  const rr = 1;
+  const rt = 0.8;
+  const w = fins * pitch + 6;
+  const corners: Corner[] = [];
+  // Underside from left to right: ribs 3 deep, 2.5 wide.
+  corners.push({ x: 0, y: 0, r: 2 });
+  const rp = (w - 12) / ribs;
+  for (let i = 0; i < ribs; i++) {
+    const x0 = 6 + i * rp + (rp - 2.5) / 2;
+    corners.push({ x: x0, y: 0, r: rr }, { x: x0, y: -3, r: rt }, { x: x0 + 2.5, y: -3, r: rt }, { x: x0 + 2.5, y: 0, r: rr });
+  }
+  corners.push({ x: w, y: 0, r: 2 }, { x: w, y: tb, r: 2 });
+  // Top from right to left: fins.
+  for (let i = fins - 1; i >= 0; i--) {
+    const x0 = 3 + i * pitch + (pitch - tf) / 2;
+    corners.push({ x: x0 + tf, y: tb, r: rr }, { x: x0 + tf, y: tb + hf, r: rt }, { x: x0, y: tb + hf, r: rt }, { x: x0, y: tb, r: rr });
+  }
+  corners.push({ x: 0, y: tb, r: 2 });
+  const hole = (cx: number) => [arc({ x: cx, y: tb / 2 }, 2.2, 0, 2 * Math.PI)];
+  return makeRegion([{ outer: filletedPolygon(corners), holes: [hole(w * 0.25), hole(w * 0.75)] }]);
+}
+
+function quantile(sorted: number[], q: number): number {
+  const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1));
+  return sorted[i]!;
+}
+
+const region = extrusion();
+const g = sectionProperties(region);
+const runs = Number(process.env.RUNS ?? 15);
+let last: TorsionProperties | null = null;
+for (let i = 0; i < 3; i++) last = torsionProperties(region); // warm-up (JIT)
+const times: number[] = [];
+for (let i = 0; i < runs; i++) {
+  const t0 = performance.now();
+  last = torsionProperties(region);
+  times.push(performance.now() - t0);
+}
+times.sort((a, b) => a - b);
+const p = last!;
+console.log(`torsion bench — Node ${process.version}, ${cpus()[0]?.model ?? 'cpu'}`);
+console.log(`profile: heat sink ${(g.xmax - g.xmin).toFixed(0)} × ${(g.ymax - g.ymin).toFixed(0)} mm, ${segmentCount(region)} boundary segments, 2 holes, A = ${g.A.toFixed(1)} mm²`);
+console.log(`J  = ${p.J.toPrecision(6)} mm⁴  (±${(p.accuracy.J * 100).toPrecision(2)} %)`);
+console.log(`Cw = ${p.Cw.toPrecision(6)} mm⁶  (±${(p.accuracy.Cw * 100).toPrecision(2)} %)`);
+console.log(`xs, ys = ${p.xs.toFixed(3)}, ${p.ys.toFixed(3)} mm  (±${(p.accuracy.xs * 100).toPrecision(2)} % of size); order ${p.order.toFixed(2)}`);
+for (const [i, L] of p.levels.entries())
+  console.log(`level ${i}: ${L.nodes} nodes, ${L.elements} elements, ${p.iterations[i]} CG iterations`);
+console.log(`time over ${runs} runs: median ${quantile(times, 0.5).toFixed(1)} ms, p95 ${quantile(times, 0.95).toFixed(1)} ms (target: median ≤ 100 ms)`);
