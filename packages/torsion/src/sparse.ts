@@ -24,27 +24,34 @@ export function patternOf(el: ArrayLike<number>, per: number, n: number): Csr {
   const fill = deg.slice(0, n);
   for (let e = 0; e < ne; e++) for (let k = 0; k < per; k++) elsOf[fill[el[e * per + k]!]!++] = e;
   const mark = new Int32Array(n).fill(-1);
+  // Upper bound of each row's length, then compact after de-duplication.
+  let cap = 0;
+  for (let i = 0; i < n; i++) cap += (deg[i + 1]! - deg[i]!) * per;
+  const cols = new Int32Array(cap);
   const rowPtr = new Int32Array(n + 1);
-  const cols: number[] = [];
-  const row: number[] = [];
+  let p = 0;
   for (let i = 0; i < n; i++) {
-    row.length = 0;
+    const r0 = p;
     for (let s = deg[i]!; s < deg[i + 1]!; s++) {
       const e = elsOf[s]!;
       for (let k = 0; k < per; k++) {
         const j = el[e * per + k]!;
         if (mark[j] !== i) {
           mark[j] = i;
-          row.push(j);
+          // Insertion into the sorted row.
+          let q = p++;
+          while (q > r0 && cols[q - 1]! > j) {
+            cols[q] = cols[q - 1]!;
+            q--;
+          }
+          cols[q] = j;
         }
       }
     }
-    row.sort((a, b) => a - b);
-    for (const j of row) cols.push(j);
-    rowPtr[i + 1] = cols.length;
+    rowPtr[i + 1] = p;
   }
-  const col = Int32Array.from(cols);
-  return { n, rowPtr, col, val: new Float64Array(col.length) };
+  const col = cols.slice(0, p);
+  return { n, rowPtr, col, val: new Float64Array(p) };
 }
 
 /** Position of entry (i, j) in the matrix's arrays (−1 if outside the pattern). */
@@ -269,7 +276,18 @@ export interface SolveReport {
  * Sparse Linear Systems", 2nd ed., Alg. 9.1) for A·x = b with A symmetric positive definite;
  * x holds the starting guess and receives the solution. Stops when ‖r‖ ≤ tol·‖b‖.
  */
-export function conjugateGradient(A: Csr, M: Factor, b: Float64Array, x: Float64Array, tol: number, maxIter = 5000): SolveReport {
+/** A preconditioner: z ≈ A⁻¹ r. */
+export type Preconditioner = (r: Float64Array, z: Float64Array) => void;
+
+export function conjugateGradient(
+  A: Csr,
+  M: Factor | Preconditioner,
+  b: Float64Array,
+  x: Float64Array,
+  tol: number,
+  maxIter = 5000,
+): SolveReport {
+  const precondition: Preconditioner = typeof M === 'function' ? M : (r, z) => applyFactor(M, r, z);
   const n = A.n;
   const r = new Float64Array(n);
   const z = new Float64Array(n);
@@ -288,7 +306,7 @@ export function conjugateGradient(A: Csr, M: Factor, b: Float64Array, x: Float64
     x.fill(0);
     return { iterations: 0, residual: 0 };
   }
-  applyFactor(M, r, z);
+  precondition(r, z);
   p.set(z);
   let rz = 0;
   for (let i = 0; i < n; i++) rz += r[i]! * z[i]!;
@@ -305,7 +323,7 @@ export function conjugateGradient(A: Csr, M: Factor, b: Float64Array, x: Float64
       r[i] = ri;
       rr += ri * ri;
     }
-    applyFactor(M, r, z);
+    precondition(r, z);
     let rz1 = 0;
     for (let i = 0; i < n; i++) rz1 += r[i]! * z[i]!;
     const beta = rz1 / rz;

@@ -2,8 +2,12 @@ import type { Region } from '@keelson/geometry';
 import { TorsionError } from './errors';
 import { curvesOf, frameOf, type Frame } from './frame';
 import { prolong, quadratic, refine, type Level, type QuadMesh } from './levels';
+import { EnvelopeCholesky, Multigrid, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
 import { generateMesh, type MeshParams, type TriMesh } from './mesh';
-import { solveWarping, type LevelResult } from './warping';
+import { assemble, finish, solveAssembled, type LevelResult } from './warping';
+
+/** Relative residual at which conjugate gradients stop: far below any discretisation error asked for. */
+const SOLVER_TOLERANCE = 1e-9;
 
 export interface TorsionOptions {
   /** Relative error wanted on J (default 1e-3). Smaller values mesh finer. */
@@ -97,15 +101,28 @@ export function torsionProperties(region: Region, opts: TorsionOptions = {}): To
   const pTheory = mesh.reentrant > Math.PI ? Math.min(4, (2 * Math.PI) / mesh.reentrant) : 4;
 
   const levels: Level[] = [quadratic(mesh)];
-  const results: LevelResult[] = [solveWarping(levels[0]!.quad, null, 1e-9)];
+  // Multigrid hierarchy: linear elements on the coarsest triangulation, then each quadratic level.
+  const asm0 = assemble(levels[0]!.quad);
+  const nv = levels[0]!.quad.corners;
+  const heldP1 = asm0.held.slice(0, nv);
+  const mg = new Multigrid(new EnvelopeCholesky(linearStiffness(levels[0]!, heldP1)), heldP1, nv);
+  mg.push(asm0.K, asm0.held, linearTransfer(levels[0]!));
+  const precondition = (r: Float64Array, z: Float64Array) => mg.apply(r, z);
+  const solve = (L: Level, asm: ReturnType<typeof assemble>, guess: Float64Array | null): LevelResult => {
+    const { u, iterations } = solveAssembled(asm, precondition, guess, SOLVER_TOLERANCE);
+    return finish(L.quad, asm, u, iterations);
+  };
+  const results: LevelResult[] = [solve(levels[0]!, asm0, null)];
   let est = estimate(results, pTheory, frame);
   while (est.accuracy.J > target) {
     const last = levels[levels.length - 1]!;
     if (4 * last.quad.x.length > maxNodes) break;
     const fine = quadratic(refine(last));
     const guess = prolong(last, fine, results[results.length - 1]!.omega);
+    const asm = assemble(fine.quad);
+    mg.push(asm.K, asm.held, quadraticTransfer(last, fine));
     levels.push(fine);
-    results.push(solveWarping(fine.quad, guess, 1e-9));
+    results.push(solve(fine, asm, guess));
     est = estimate(results, pTheory, frame);
   }
   const finest = levels[levels.length - 1]!.quad;

@@ -1,12 +1,14 @@
 import { ElementAt, RULE3, RULE6 } from './element';
 import { TorsionError } from './errors';
 import type { QuadMesh } from './levels';
+import { holdRows } from './multigrid';
 import {
+  applyFactor,
   conjugateGradient,
   incompleteCholesky,
   patternOf,
-  reverseCuthillMcKee,
   type Csr,
+  type Preconditioner,
 } from './sparse';
 
 /** Torsion and warping quantities of one mesh, in the normalised frame. */
@@ -47,6 +49,55 @@ export interface LevelResult {
  * sectorial coordinate).
  */
 export function solveWarping(mesh: QuadMesh, guess: Float64Array | null, tol: number): LevelResult {
+  const asm = assemble(mesh);
+  const M = incompleteCholesky(asm.K);
+  const { u, iterations } = solveAssembled(asm, (r, z) => applyFactor(M, r, z), guess, tol);
+  return finish(mesh, asm, u, iterations, M.shift);
+}
+
+/** The assembled system of one level: stiffness with held rows, load, area moments. */
+export interface Assembly {
+  readonly K: Csr;
+  readonly f: Float64Array;
+  readonly held: Uint8Array;
+  readonly component: Int32Array;
+  readonly components: number;
+  readonly A: number;
+  readonly cx: number;
+  readonly cy: number;
+  readonly Ix: number;
+  readonly Iy: number;
+  readonly Ixy: number;
+}
+
+/** Connected pieces of the node graph, each rooted at (and numbered from) its smallest node. */
+function piecesOf(K: Csr): { component: Int32Array; components: number } {
+  const n = K.n;
+  const component = new Int32Array(n).fill(-1);
+  const queue = new Int32Array(n);
+  let components = 0;
+  for (let s = 0; s < n; s++) {
+    if (component[s] !== -1) continue;
+    let head = 0;
+    let tail = 0;
+    queue[tail++] = s;
+    component[s] = components;
+    while (head < tail) {
+      const i = queue[head++]!;
+      for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) {
+        const j = K.col[k]!;
+        if (component[j] === -1) {
+          component[j] = components;
+          queue[tail++] = j;
+        }
+      }
+    }
+    components++;
+  }
+  return { component, components };
+}
+
+export function assemble(mesh: QuadMesh): Assembly {
   const { x, y, el, curved } = mesh;
   const nn = x.length;
   const ne = el.length / 6;
@@ -78,14 +129,9 @@ export function solveWarping(mesh: QuadMesh, guess: Float64Array | null, tol: nu
   const cx = Sx / A;
   const cy = Sy / A;
 
-  // Couplings in reverse Cuthill–McKee order.
-  const base = patternOf(el, 6, nn);
-  const { perm, component, components } = reverseCuthillMcKee(base);
-  const inv = new Int32Array(nn);
-  for (let i = 0; i < nn; i++) inv[perm[i]!] = i;
-  const elP = new Int32Array(el.length);
-  for (let k = 0; k < el.length; k++) elP[k] = inv[el[k]!]!;
-  const K: Csr = patternOf(elP, 6, nn);
+  // Mesh levels number nodes coarse-first and the coarsest mesh is spatially ordered: keep that order.
+  const K: Csr = patternOf(el, 6, nn);
+  const { component, components } = piecesOf(K);
   const f = new Float64Array(nn);
   let Ix = 0;
   let Iy = 0;
@@ -115,11 +161,11 @@ export function solveWarping(mesh: QuadMesh, guess: Float64Array | null, tol: nu
     }
     // Scatter: positions of the element's 36 couplings in the sorted rows.
     for (let i = 0; i < 6; i++) {
-      const r = elP[6 * e + i]!;
+      const r = el[6 * e + i]!;
       const r0 = K.rowPtr[r]!;
       const r1 = K.rowPtr[r + 1]!;
       for (let j = 0; j < 6; j++) {
-        const c = elP[6 * e + j]!;
+        const c = el[6 * e + j]!;
         let p = r0;
         while (p < r1 && K.col[p] !== c) p++;
         pos[6 * i + j] = p;
@@ -130,47 +176,68 @@ export function solveWarping(mesh: QuadMesh, guess: Float64Array | null, tol: nu
       for (let j = 0; j < 6; j++) K.val[pos[6 * i + j]!]! += i <= j ? ke[6 * i + j]! : ke[6 * j + i]!;
   }
 
-  // One node per connected piece held at zero (the first of each piece in the new order).
+  // One node per connected piece held at zero: its smallest node, a corner of the coarsest mesh,
+  // so every level holds the same point.
   const held = new Uint8Array(nn);
   const seen = new Uint8Array(components);
-  for (let i = 0; i < nn; i++) {
-    const c = component[perm[i]!]!;
-    if (!seen[c]) {
-      seen[c] = 1;
-      held[i] = 1;
-    }
-  }
-  const Kfull = { ...K, val: K.val.slice() };
   for (let i = 0; i < nn; i++)
-    for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) {
-      const j = K.col[k]!;
-      if (held[i] || held[j]) K.val[k] = i === j ? 1 : 0;
+    if (!seen[component[i]!]) {
+      seen[component[i]!] = 1;
+      held[i] = 1;
+      f[i] = 0;
     }
-  for (let i = 0; i < nn; i++) if (held[i]) f[i] = 0;
+  holdRows(K, held);
+  return { K, f, held, component, components, A, cx, cy, Ix, Iy, Ixy };
+}
 
+/** Solves the assembled system from a starting guess (shifted so held nodes start at zero). */
+export function solveAssembled(
+  asm: Assembly,
+  M: Preconditioner,
+  guess: Float64Array | null,
+  tol: number,
+): { u: Float64Array; iterations: number } {
+  const { K, f, held, component, components } = asm;
+  const nn = K.n;
   const u = new Float64Array(nn);
   if (guess) {
-    // Start from the coarser level's field, shifted so that each held node starts at zero.
     const at = new Float64Array(components);
-    for (let i = 0; i < nn; i++) if (held[i]) at[component[perm[i]!]!] = guess[perm[i]!]!;
-    for (let i = 0; i < nn; i++) u[i] = held[i] ? 0 : guess[perm[i]!]! - at[component[perm[i]!]!]!;
+    for (let i = 0; i < nn; i++) if (held[i]) at[component[i]!] = guess[i]!;
+    for (let i = 0; i < nn; i++) u[i] = held[i] ? 0 : guess[i]! - at[component[i]!]!;
   }
-  const M = incompleteCholesky(K);
   const rep = conjugateGradient(K, M, f, u, tol);
+  return { u, iterations: rep.iterations };
+}
 
-  // J from the energy functional (stationary: solver error enters squared).
+/** J, shear centre and Cw from the solved warping function of one level. */
+export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iterations: number, shift = 0): LevelResult {
+  const { x, y, el } = mesh;
+  const nn = x.length;
+  const ne = el.length / 6;
+  const { K, f, component, components, A, cx, cy, Ix, Iy, Ixy } = asm;
+  const E = new ElementAt();
+  const ex = new Float64Array(6);
+  const ey = new Float64Array(6);
+  const load = (e: number, dx: number, dy: number) => {
+    for (let k = 0; k < 6; k++) {
+      const n = el[6 * e + k]!;
+      ex[k] = x[n]! - dx;
+      ey[k] = y[n]! - dy;
+    }
+  };
+  // J from the energy functional (stationary: solver error enters squared). Held nodes are zero,
+  // so the held rows change neither fᵀu nor uᵀKu.
   let fu = 0;
   let uKu = 0;
   for (let i = 0; i < nn; i++) {
     fu += f[i]! * u[i]!;
     let s = 0;
-    for (let k = Kfull.rowPtr[i]!; k < Kfull.rowPtr[i + 1]!; k++) s += Kfull.val[k]! * u[Kfull.col[k]!]!;
+    for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) s += K.val[k]! * u[K.col[k]!]!;
     uKu += u[i]! * s;
   }
   const J = Ix + Iy - (2 * fu - uKu);
 
-  const omega = new Float64Array(nn);
-  for (let i = 0; i < nn; i++) omega[perm[i]!] = u[i]!;
+  const omega = u.slice();
 
   // Mean zero over each connected piece.
   const pieceA = new Float64Array(components);
@@ -235,7 +302,7 @@ export function solveWarping(mesh: QuadMesh, guess: Float64Array | null, tol: nu
     Iy,
     Ixy,
     omega,
-    iterations: rep.iterations,
-    shift: M.shift,
+    iterations,
+    shift,
   };
 }
