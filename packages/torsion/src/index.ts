@@ -18,3 +18,5 @@ export {
   type SolveReport,
 } from './sparse';
 export { TorsionError, type TorsionErrorCode } from './errors';
+export { EnvelopeCholesky, Multigrid, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
+export { assemble, finish, solveAssembled, type Assembly } from './warping';

@@ -137,19 +137,27 @@ class Boundary {
  */
 function facingSizes(B: Boundary, p: MeshParams): number {
   const reach = p.across * p.hmax;
-  const cell = Math.max(reach / 2, 1 / 200);
-  const n = Math.ceil(1.04 / cell);
-  const buckets: number[][] = Array.from({ length: n * n }, () => []);
-  const ix = (x: number) => Math.min(n - 1, Math.max(0, Math.floor((x + 0.52) / cell)));
   const subs = [...B.subsegments()];
-  for (const v of subs) {
+  // Buckets about two median pieces wide; the search grows ring by ring and stops past the best.
+  const lens = subs.map((v) => B.length(v)).sort((a, b) => a - b);
+  const cell = Math.max(2 * lens[lens.length >> 1]!, 1 / 1024);
+  const n = Math.ceil(1.04 / cell);
+  const count = new Int32Array(n * n + 1);
+  const ix = (x: number) => Math.min(n - 1, Math.max(0, Math.floor((x + 0.52) / cell)));
+  const span = (v: number, f: (k: number) => void) => {
     const w = B.next[v]!;
     const i0 = ix(Math.min(B.x[v]!, B.x[w]!));
     const i1 = ix(Math.max(B.x[v]!, B.x[w]!));
     const j0 = ix(Math.min(B.y[v]!, B.y[w]!));
     const j1 = ix(Math.max(B.y[v]!, B.y[w]!));
-    for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) buckets[j * n + i]!.push(v);
-  }
+    for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) f(j * n + i);
+  };
+  for (const v of subs) span(v, (k) => count[k + 1]!++);
+  for (let k = 0; k < n * n; k++) count[k + 1]! += count[k]!;
+  const fill = count.slice(0, n * n);
+  const items = new Int32Array(count[n * n]!);
+  for (const v of subs) span(v, (k) => (items[fill[k]!++] = v));
+
   const stamp = new Int32Array(B.x.length).fill(-1);
   let splits = 0;
   for (const v of subs) {
@@ -166,33 +174,47 @@ function facingSizes(B: Boundary, p: MeshParams): number {
     const ci = B.curve[v]!;
     const c = B.curves[ci]!;
     let best = reach;
-    const r = Math.ceil(reach / cell);
     const ci0 = ix(mx);
     const cj0 = ix(my);
-    for (let j = Math.max(0, cj0 - r); j <= Math.min(n - 1, cj0 + r); j++)
-      for (let i = Math.max(0, ci0 - r); i <= Math.min(n - 1, ci0 + r); i++)
-        for (const u of buckets[j * n + i]!) {
-          if (stamp[u] === v) continue;
-          stamp[u] = v;
-          const cu = B.curve[u]!;
-          if (cu === ci || cu === c.prev || cu === c.next) continue;
-          const z = B.next[u]!;
-          const ux = B.x[u]!;
-          const uy = B.y[u]!;
-          const ex = B.x[z]! - ux;
-          const ey = B.y[z]! - uy;
-          const l2 = ex * ex + ey * ey;
-          let s = ((mx - ux) * ex + (my - uy) * ey) / l2;
-          s = s < 0 ? 0 : s > 1 ? 1 : s;
-          const qx = ux + s * ex - mx;
-          const qy = uy + s * ey - my;
-          const d = Math.hypot(qx, qy);
-          if (!(d < best)) continue;
-          // Across the solid: q ahead along our inward normal, and we ahead along its inward normal.
-          if (qx * nx + qy * ny < 0.5 * d) continue;
-          if (-(qx * -ey + qy * ex) < 0) continue;
-          best = d;
-        }
+    const test = (u: number) => {
+      if (stamp[u] === v) return;
+      stamp[u] = v;
+      const cu = B.curve[u]!;
+      if (cu === ci || cu === c.prev || cu === c.next) return;
+      const z = B.next[u]!;
+      const ux = B.x[u]!;
+      const uy = B.y[u]!;
+      const ex = B.x[z]! - ux;
+      const ey = B.y[z]! - uy;
+      const l2 = ex * ex + ey * ey;
+      let s = ((mx - ux) * ex + (my - uy) * ey) / l2;
+      s = s < 0 ? 0 : s > 1 ? 1 : s;
+      const qx = ux + s * ex - mx;
+      const qy = uy + s * ey - my;
+      const d = Math.hypot(qx, qy);
+      if (!(d < best)) return;
+      // Across the solid: q ahead along our inward normal, and we ahead along its inward normal.
+      if (qx * nx + qy * ny < 0.5 * d) return;
+      if (-(qx * -ey + qy * ex) < 0) return;
+      best = d;
+    };
+    for (let ring = 0; ring <= n && (ring - 1) * cell < best; ring++) {
+      const j0 = cj0 - ring;
+      const j1 = cj0 + ring;
+      const scan = (i: number, j: number) => {
+        if (i < 0 || i >= n || j < 0 || j >= n) return;
+        const k = j * n + i;
+        for (let q = count[k]!; q < count[k + 1]!; q++) test(items[q]!);
+      };
+      for (let i = ci0 - ring; i <= ci0 + ring; i++) {
+        scan(i, j0);
+        if (ring > 0) scan(i, j1);
+      }
+      for (let j = j0 + 1; j < j1; j++) {
+        scan(ci0 - ring, j);
+        scan(ci0 + ring, j);
+      }
+    }
     let want = Math.min(B.want[v]!, best / p.across);
     if (c.arc) want = Math.min(want, c.r * arcStep(c.r, p));
     B.want[v] = want;

@@ -6,8 +6,12 @@ import { EnvelopeCholesky, Multigrid, linearStiffness, linearTransfer, quadratic
 import { generateMesh, type MeshParams, type TriMesh } from './mesh';
 import { assemble, finish, solveAssembled, type LevelResult } from './warping';
 
-/** Relative residual at which conjugate gradients stop: far below any discretisation error asked for. */
-const SOLVER_TOLERANCE = 1e-9;
+/**
+ * Relative residual at which conjugate gradients stop: J comes from the energy functional, whose
+ * error is quadratic in the solver's, so 1e-7 (tighter with the target) is far below any
+ * discretisation error asked for.
+ */
+const solverTolerance = (target: number) => Math.min(1e-7, 1e-4 * target);
 
 export interface TorsionOptions {
   /** Relative error wanted on J (default 1e-3). Smaller values mesh finer. */
@@ -109,7 +113,7 @@ export function torsionProperties(region: Region, opts: TorsionOptions = {}): To
   mg.push(asm0.K, asm0.held, linearTransfer(levels[0]!));
   const precondition = (r: Float64Array, z: Float64Array) => mg.apply(r, z);
   const solve = (L: Level, asm: ReturnType<typeof assemble>, guess: Float64Array | null): LevelResult => {
-    const { u, iterations } = solveAssembled(asm, precondition, guess, SOLVER_TOLERANCE);
+    const { u, iterations } = solveAssembled(asm, precondition, guess, solverTolerance(target));
     return finish(L.quad, asm, u, iterations);
   };
   const results: LevelResult[] = [solve(levels[0]!, asm0, null)];
