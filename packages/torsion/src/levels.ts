@@ -21,6 +21,17 @@ export interface Edges {
   readonly ea: Uint32Array;
   readonly eb: Uint32Array;
   readonly triEdge: Uint32Array;
+  /** Edges by smaller end: ids byLo[lo[v] … lo[v + 1]) have ea = v. */
+  readonly lo: Uint32Array;
+  readonly byLo: Uint32Array;
+}
+
+/** Id of the edge between vertices a and b (−1 if none). */
+export function findEdge(E: Edges, a: number, b: number): number {
+  const v = Math.min(a, b);
+  const w = Math.max(a, b);
+  for (let s = E.lo[v]!; s < E.lo[v + 1]!; s++) if (E.eb[E.byLo[s]!] === w) return E.byLo[s]!;
+  return -1;
 }
 
 export function edgesOf(tri: Uint32Array, nv: number): Edges {
@@ -37,8 +48,9 @@ export function edgesOf(tri: Uint32Array, nv: number): Edges {
   const slotId = new Uint32Array(3 * nt);
   const fill = count.slice(0, nv);
   const triEdge = new Uint32Array(3 * nt);
-  const ea: number[] = [];
-  const eb: number[] = [];
+  const ea = new Uint32Array(3 * nt);
+  const eb = new Uint32Array(3 * nt);
+  let ne = 0;
   for (let e = 0; e < 3 * nt; e++) {
     const a = tri[e]!;
     const b = tri[e % 3 === 2 ? e - 2 : e + 1]!;
@@ -51,29 +63,29 @@ export function edgesOf(tri: Uint32Array, nv: number): Edges {
         break;
       }
     if (id < 0) {
-      id = ea.length;
-      ea.push(lo);
-      eb.push(hi);
+      id = ne++;
+      ea[id] = lo;
+      eb[id] = hi;
       const s = fill[lo]!++;
       slotOther[s] = hi;
       slotId[s] = id;
     }
     triEdge[e] = id;
   }
-  return { ea: Uint32Array.from(ea), eb: Uint32Array.from(eb), triEdge };
+  // Compact the per-vertex slots into the lookup table.
+  const lo = new Uint32Array(nv + 1);
+  for (let v = 0; v < nv; v++) lo[v + 1] = lo[v]! + (fill[v]! - count[v]!);
+  const byLo = new Uint32Array(ne);
+  for (let v = 0; v < nv; v++) for (let s = count[v]!; s < fill[v]!; s++) byLo[lo[v]! + s - count[v]!] = slotId[s]!;
+  return { ea: ea.slice(0, ne), eb: eb.slice(0, ne), triEdge, lo, byLo };
 }
 
 /** Per edge, the boundary piece on it (index into the mesh's boundary arrays), or −1. */
 function boundaryOfEdges(m: TriMesh, E: Edges): Int32Array {
-  const nv = m.x.length;
-  const byLo = new Map<number, number>();
-  for (let k = 0; k < E.ea.length; k++) byLo.set(E.ea[k]! * nv + E.eb[k]!, k);
   const out = new Int32Array(E.ea.length).fill(-1);
   for (let k = 0; k < m.ba.length; k++) {
-    const a = m.ba[k]!;
-    const b = m.bb[k]!;
-    const id = byLo.get(Math.min(a, b) * nv + Math.max(a, b));
-    if (id !== undefined) out[id] = k;
+    const id = findEdge(E, m.ba[k]!, m.bb[k]!);
+    if (id >= 0) out[id] = k;
   }
   return out;
 }
@@ -155,12 +167,10 @@ export function refine(L: Level): TriMesh {
   const bt0 = new Float64Array(2 * nb);
   const bt1 = new Float64Array(2 * nb);
   const nv = m.x.length;
-  const byLo = new Map<number, number>();
-  for (let k = 0; k < L.edges.ea.length; k++) byLo.set(L.edges.ea[k]! * nv + L.edges.eb[k]!, k);
   for (let k = 0; k < nb; k++) {
     const a = m.ba[k]!;
     const b = m.bb[k]!;
-    const mid = nv + byLo.get(Math.min(a, b) * nv + Math.max(a, b))!;
+    const mid = nv + findEdge(L.edges, a, b);
     const tm = (m.bt0[k]! + m.bt1[k]!) / 2;
     ba[2 * k] = a;
     bb[2 * k] = mid;

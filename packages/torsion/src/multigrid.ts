@@ -93,11 +93,14 @@ function csrFromRows(rows: number[][], vals: number[][], nc: number): Csr {
 export function quadraticTransfer(coarse: Level, fine: Level): Csr {
   const nc = coarse.quad.x.length;
   const nf = fine.quad.x.length;
-  const rows: number[][] = new Array(nf);
-  const vals: number[][] = new Array(nf);
+  // Corner rows hold one weight, edge-node rows up to six: fixed slots, compacted at the end.
+  const cnt = new Int32Array(nf);
+  const slotC = new Int32Array(6 * nf);
+  const slotV = new Float64Array(6 * nf);
   for (let i = 0; i < nc; i++) {
-    rows[i] = [i];
-    vals[i] = [1];
+    cnt[i] = 1;
+    slotC[6 * i] = i;
+    slotV[6 * i] = 1;
   }
   const B = [
     [1, 0, 0], [0.5, 0.5, 0], [0.5, 0, 0.5],
@@ -105,28 +108,42 @@ export function quadraticTransfer(coarse: Level, fine: Level): Csr {
     [0.5, 0, 0.5], [0, 0.5, 0.5], [0, 0, 1],
     [0.5, 0.5, 0], [0, 0.5, 0.5], [0.5, 0, 0.5],
   ];
+  // Weights of the 12 child edge nodes (4 children × 3 edges) on the parent's 6 nodes.
+  const W: number[][] = [];
+  for (let c = 0; c < 4; c++)
+    for (let i = 0; i < 3; i++) {
+      const a = B[3 * c + i]!;
+      const b = B[3 * c + ((i + 1) % 3)]!;
+      const l = [(a[0]! + b[0]!) / 2, (a[1]! + b[1]!) / 2, (a[2]! + b[2]!) / 2] as const;
+      W.push([l[0] * (2 * l[0] - 1), l[1] * (2 * l[1] - 1), l[2] * (2 * l[2] - 1), 4 * l[0] * l[1], 4 * l[1] * l[2], 4 * l[2] * l[0]]);
+    }
   const cel = coarse.quad.el;
   const fel = fine.quad.el;
   for (let t = 0; t < cel.length / 6; t++)
     for (let c = 0; c < 4; c++)
       for (let i = 0; i < 3; i++) {
         const node = fel[6 * (4 * t + c) + 3 + i]!;
-        if (rows[node]) continue;
-        const a = B[3 * c + i]!;
-        const b = B[3 * c + ((i + 1) % 3)]!;
-        const l = [(a[0]! + b[0]!) / 2, (a[1]! + b[1]!) / 2, (a[2]! + b[2]!) / 2] as const;
-        const w = [l[0] * (2 * l[0] - 1), l[1] * (2 * l[1] - 1), l[2] * (2 * l[2] - 1), 4 * l[0] * l[1], 4 * l[1] * l[2], 4 * l[2] * l[0]];
-        const r: number[] = [];
-        const v: number[] = [];
+        if (cnt[node]! > 0) continue;
+        const w = W[3 * c + i]!;
+        let q = 0;
         for (let k = 0; k < 6; k++)
           if (w[k] !== 0) {
-            r.push(cel[6 * t + k]!);
-            v.push(w[k]!);
+            slotC[6 * node + q] = cel[6 * t + k]!;
+            slotV[6 * node + q] = w[k]!;
+            q++;
           }
-        rows[node] = r;
-        vals[node] = v;
+        cnt[node] = q;
       }
-  return csrFromRows(rows, vals, nc);
+  const rowPtr = new Int32Array(nf + 1);
+  for (let i = 0; i < nf; i++) rowPtr[i + 1] = rowPtr[i]! + cnt[i]!;
+  const col = new Int32Array(rowPtr[nf]!);
+  const val = new Float64Array(rowPtr[nf]!);
+  for (let i = 0; i < nf; i++)
+    for (let q = 0; q < cnt[i]!; q++) {
+      col[rowPtr[i]! + q] = slotC[6 * i + q]!;
+      val[rowPtr[i]! + q] = slotV[6 * i + q]!;
+    }
+  return { n: nc, rowPtr, col, val };
 }
 
 /** Prolongation from linear to quadratic elements on the same triangulation (edge node = mean of its ends). */
