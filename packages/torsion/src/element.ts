@@ -93,6 +93,39 @@ export class ElementAt {
     return true;
   }
 
+  /**
+   * The same for a straight-sided element (edge nodes at the midpoints): the Jacobian is constant,
+   * taken from the corners once.
+   */
+  evaluateStraight(xs: Float64Array, ys: Float64Array, rule: Rule): boolean {
+    this.rule = rule;
+    const { N, dxi, deta, w } = rule;
+    const x0 = xs[0]!;
+    const y0 = ys[0]!;
+    const j11 = xs[1]! - x0;
+    const j12 = xs[2]! - x0;
+    const j21 = ys[1]! - y0;
+    const j22 = ys[2]! - y0;
+    const det = j11 * j22 - j12 * j21;
+    if (!(det > 0)) return false;
+    for (let q = 0; q < rule.points; q++) {
+      // Reference position from the linear shape functions: ξ = N-weighted corner 1, η corner 2.
+      const o = 6 * q;
+      const xi = N[o + 1]! + 0.5 * (N[o + 3]! + N[o + 4]!);
+      const eta = N[o + 2]! + 0.5 * (N[o + 4]! + N[o + 5]!);
+      this.wd[q] = w[q]! * det;
+      this.px[q] = x0 + j11 * xi + j12 * eta;
+      this.py[q] = y0 + j21 * xi + j22 * eta;
+      for (let k = 0; k < 6; k++) {
+        const a = dxi[o + k]!;
+        const b = deta[o + k]!;
+        this.gx[o + k] = (j22 * a - j21 * b) / det;
+        this.gy[o + k] = (-j12 * a + j11 * b) / det;
+      }
+    }
+    return true;
+  }
+
   /** Value at point q of the field with nodal values u (6). */
   value(u: Float64Array, q: number): number {
     const N = this.rule.N;

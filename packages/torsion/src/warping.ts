@@ -118,7 +118,7 @@ export function assemble(mesh: QuadMesh): Assembly {
   let Sy = 0;
   for (let e = 0; e < ne; e++) {
     load(e, 0, 0);
-    if (!E.evaluate(ex, ey, curved[e] ? RULE6 : RULE3))
+    if (!(curved[e] ? E.evaluate(ex, ey, RULE6) : E.evaluateStraight(ex, ey, RULE3)))
       throw new TorsionError('MESH_FAILED', `element ${e} is inverted`);
     for (let q = 0; q < E.rule.points; q++) {
       A += E.wd[q]!;
@@ -141,7 +141,8 @@ export function assemble(mesh: QuadMesh): Assembly {
   const pos = new Int32Array(36);
   for (let e = 0; e < ne; e++) {
     load(e, cx, cy);
-    E.evaluate(ex, ey, curved[e] ? RULE6 : RULE3);
+    if (curved[e]) E.evaluate(ex, ey, RULE6);
+    else E.evaluateStraight(ex, ey, RULE3);
     ke.fill(0);
     fe.fill(0);
     for (let q = 0; q < E.rule.points; q++) {
@@ -211,7 +212,7 @@ export function solveAssembled(
 
 /** J, shear centre and Cw from the solved warping function of one level. */
 export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iterations: number, shift = 0): LevelResult {
-  const { x, y, el } = mesh;
+  const { x, y, el, curved } = mesh;
   const nn = x.length;
   const ne = el.length / 6;
   const { K, f, component, components, A, cx, cy, Ix, Iy, Ixy } = asm;
@@ -248,7 +249,8 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   };
   for (let e = 0; e < ne; e++) {
     load(e, cx, cy);
-    E.evaluate(ex, ey, RULE6);
+    if (curved[e]) E.evaluate(ex, ey, RULE6);
+    else E.evaluateStraight(ex, ey, RULE6);
     gather(e, omega);
     const c = component[el[6 * e]!]!;
     for (let q = 0; q < 6; q++) {
@@ -262,7 +264,8 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   let Iwy = 0;
   for (let e = 0; e < ne; e++) {
     load(e, cx, cy);
-    E.evaluate(ex, ey, RULE6);
+    if (curved[e]) E.evaluate(ex, ey, RULE6);
+    else E.evaluateStraight(ex, ey, RULE6);
     gather(e, omega);
     for (let q = 0; q < 6; q++) {
       const w = E.value(ue, q) * E.wd[q]!;
@@ -281,7 +284,8 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   let W2 = 0;
   for (let e = 0; e < ne; e++) {
     load(e, cx, cy);
-    E.evaluate(ex, ey, RULE6);
+    if (curved[e]) E.evaluate(ex, ey, RULE6);
+    else E.evaluateStraight(ex, ey, RULE6);
     gather(e, w0);
     for (let q = 0; q < 6; q++) {
       const v = E.value(ue, q);
