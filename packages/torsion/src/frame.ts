@@ -1,4 +1,13 @@
-import { flattenSegment, line, regionBox, type ArcSegment, type LineSegment, type Region, type Segment } from '@keelson/geometry';
+import {
+  flattenSegment,
+  line,
+  regionBox,
+  type ArcSegment,
+  type EllipseSegment,
+  type LineSegment,
+  type Region,
+  type Segment,
+} from '@keelson/geometry';
 
 /**
  * Meshing and solving run in a normalised frame: x' = (x − ox)/s, y' = (y − oy)/s with (ox, oy)
@@ -14,10 +23,16 @@ export interface Frame {
 
 /**
  * A boundary curve in the normalised frame, parametrised by t ∈ [0, 1]: a line from (ax, ay) to
- * (bx, by), or an arc about (cx, cy) of radius r from angle a0 through the signed angle sweep.
+ * (bx, by), or (arc) a circular or elliptical arc p = c + u·cos θ + v·sin θ, θ = a0 + t·sweep
+ * (a circle has u = (r, 0), v = (0, r)). r is then the smallest radius of curvature, b²/a for
+ * semi-axes a ≥ b: the size that bounds how far one boundary side may turn.
  */
 export interface Curve {
   readonly arc: boolean;
+  readonly ux: number;
+  readonly uy: number;
+  readonly vx: number;
+  readonly vy: number;
   readonly ax: number;
   readonly ay: number;
   readonly bx: number;
@@ -44,10 +59,10 @@ export function curvesOf(region: Region, f: Frame): { curves: Curve[]; loops: nu
   const curves: Curve[] = [];
   const loops: number[][] = [];
   const add = (drawn: readonly Segment[]) => {
-    // Elliptical arcs and splines enter the mesh as chords within 1e-7 of the section's size,
-    // far below the finite-element error the solver states.
-    const loop = drawn.flatMap((seg): (LineSegment | ArcSegment)[] => {
-      if (seg.kind === 'line' || seg.kind === 'arc') return [seg];
+    // Splines enter the mesh as chords within 1e-7 of the section's size, far below the
+    // finite-element error the solver states; circular and elliptical arcs are followed exactly.
+    const loop = drawn.flatMap((seg): (LineSegment | ArcSegment | EllipseSegment)[] => {
+      if (seg.kind !== 'spline') return [seg];
       const pts = flattenSegment(seg, 1e-7 * f.s);
       return pts.slice(1).map((p, i) => line(pts[i]!, p));
     });
@@ -66,6 +81,10 @@ export function curvesOf(region: Region, f: Frame): { curves: Curve[]; loops: nu
           ay: (seg.a.y - f.oy) / f.s,
           bx: (seg.b.x - f.ox) / f.s,
           by: (seg.b.y - f.oy) / f.s,
+          ux: 0,
+          uy: 0,
+          vx: 0,
+          vy: 0,
           cx: 0,
           cy: 0,
           r: 0,
@@ -78,22 +97,18 @@ export function curvesOf(region: Region, f: Frame): { curves: Curve[]; loops: nu
       else {
         const cx = (seg.c.x - f.ox) / f.s;
         const cy = (seg.c.y - f.oy) / f.s;
-        const r = seg.r / f.s;
-        curves.push({
-          arc: true,
-          ax: cx + r * Math.cos(seg.start),
-          ay: cy + r * Math.sin(seg.start),
-          bx: cx + r * Math.cos(seg.start + seg.sweep),
-          by: cy + r * Math.sin(seg.start + seg.sweep),
-          cx,
-          cy,
-          r,
-          a0: seg.start,
-          sweep: seg.sweep,
-          loop: li,
-          prev,
-          next,
-        });
+        const [ux, uy, vx, vy] =
+          seg.kind === 'arc' ? [seg.r / f.s, 0, 0, seg.r / f.s] : [seg.u.x / f.s, seg.u.y / f.s, seg.v.x / f.s, seg.v.y / f.s];
+        // Semi-axes are the singular values of [u v].
+        const pp = ux * ux + uy * uy + vx * vx + vy * vy;
+        const q = Math.abs(ux * vy - uy * vx);
+        const disc = Math.sqrt(Math.max(0, pp * pp - 4 * q * q));
+        const a = Math.sqrt((pp + disc) / 2);
+        const b = q / a;
+        const at = (th: number) => [cx + ux * Math.cos(th) + vx * Math.sin(th), cy + uy * Math.cos(th) + vy * Math.sin(th)] as const;
+        const [ax, ay] = at(seg.start);
+        const [bx, by] = at(seg.start + seg.sweep);
+        curves.push({ arc: true, ux, uy, vx, vy, ax, ay, bx, by, cx, cy, r: (b * b) / a, a0: seg.start, sweep: seg.sweep, loop: li, prev, next });
       }
     });
     loops.push(ids);
@@ -106,11 +121,15 @@ export function curvesOf(region: Region, f: Frame): { curves: Curve[]; loops: nu
 }
 
 export function curveX(c: Curve, t: number): number {
-  return c.arc ? c.cx + c.r * Math.cos(c.a0 + t * c.sweep) : c.ax + t * (c.bx - c.ax);
+  if (!c.arc) return c.ax + t * (c.bx - c.ax);
+  const th = c.a0 + t * c.sweep;
+  return c.cx + c.ux * Math.cos(th) + c.vx * Math.sin(th);
 }
 
 export function curveY(c: Curve, t: number): number {
-  return c.arc ? c.cy + c.r * Math.sin(c.a0 + t * c.sweep) : c.ay + t * (c.by - c.ay);
+  if (!c.arc) return c.ay + t * (c.by - c.ay);
+  const th = c.a0 + t * c.sweep;
+  return c.cy + c.uy * Math.cos(th) + c.vy * Math.sin(th);
 }
 
 /** Unit tangent in the direction of travel at parameter t. */
@@ -119,11 +138,16 @@ export function curveTangent(c: Curve, t: number): [number, number] {
     const l = Math.hypot(c.bx - c.ax, c.by - c.ay);
     return [(c.bx - c.ax) / l, (c.by - c.ay) / l];
   }
-  const a = c.a0 + t * c.sweep;
+  const th = c.a0 + t * c.sweep;
   const sg = Math.sign(c.sweep);
-  return [-Math.sin(a) * sg, Math.cos(a) * sg];
+  const dx = (-c.ux * Math.sin(th) + c.vx * Math.cos(th)) * sg;
+  const dy = (-c.uy * Math.sin(th) + c.vy * Math.cos(th)) * sg;
+  const l = Math.hypot(dx, dy);
+  return [dx / l, dy / l];
 }
 
+/** Length of a line; for arcs an upper bound (largest semi-axis × |sweep|), enough to size pieces. */
 export function curveLength(c: Curve): number {
-  return c.arc ? c.r * Math.abs(c.sweep) : Math.hypot(c.bx - c.ax, c.by - c.ay);
+  if (!c.arc) return Math.hypot(c.bx - c.ax, c.by - c.ay);
+  return Math.max(Math.hypot(c.ux, c.uy), Math.hypot(c.vx, c.vy)) * Math.abs(c.sweep);
 }

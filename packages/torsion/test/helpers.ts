@@ -1,4 +1,4 @@
-import { arc, line, makeRegion, type Point, type Region } from '@keelson/geometry';
+import { arc, ellipse, line, makeRegion, type Point, type Region } from '@keelson/geometry';
 import { polygonRegion } from '@keelson/shapes';
 
 /**
@@ -9,6 +9,13 @@ export function rectangleBeta(w: number, t: number): number {
   let s = 0;
   for (let n = 1; n < 400; n += 2) s += Math.tanh((n * Math.PI * w) / (2 * t)) / n ** 5;
   return (1 / 3) * (1 - (192 / Math.PI ** 5) * (t / w) * s);
+}
+
+/** Ellipse x²/a² + y²/b² = 1 as one exact elliptical arc, rotated by phi. */
+export function ellipseRegion(a: number, b: number, phi = 0): Region {
+  const c = Math.cos(phi);
+  const s = Math.sin(phi);
+  return makeRegion([{ outer: [ellipse({ x: 0, y: 0 }, { x: a * c, y: a * s }, { x: -b * s, y: b * c }, 0, 2 * Math.PI)], holes: [] }]);
 }
 
 /** Regular n-gon inscribed in the ellipse x²/a² + y²/b² = 1 (the geometry core has no elliptical arcs yet). */
