@@ -65,3 +65,4 @@ export { nestLoops, pointInLoop } from './nest';
 export { findCrossing, findCrossings, type Crossing } from './crossings';
 export { flattenSegment } from './flatten';
 export { isRational, splineDomain } from './spline';
+export { symmetries, type Symmetry } from './symmetry';

@@ -10,6 +10,8 @@ export interface ComputeOptions extends ParseLimits {
   readonly source: string;
   /** Unit of the results; default the drawing's own (feet reported in inches). */
   readonly units?: OutputUnit;
+  /** Relative error wanted on J (default 1e-3), or false to skip torsion and warping. */
+  readonly torsion?: number | false;
   /** Unit of a drawing whose `$INSUNITS` is missing or wrong. */
   readonly drawingUnits?: LengthUnit;
   /** Largest drawing accepted, in bytes. */
@@ -30,5 +32,5 @@ export async function computeDrawing(input: Uint8Array | string, opts: ComputeOp
     timeoutMs: opts.timeoutMs,
     maxMemoryMb: opts.maxMemoryMb,
   });
-  return profileOf(drawing, opts.name, opts.source, opts.units);
+  return profileOf(drawing, opts.name, opts.source, { units: opts.units, torsion: opts.torsion });
 }

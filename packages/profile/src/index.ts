@@ -1,4 +1,14 @@
-export { EXACT, PROPERTY_KEYS, defaultOutputUnit, profileOf, type Profile } from './profile';
+export {
+  EXACT,
+  PROPERTY_KEYS,
+  TORSION_DIMENSION,
+  defaultOutputUnit,
+  profileOf,
+  type Profile,
+  type ProfileKey,
+  type ProfileOptions,
+  type TorsionValues,
+} from './profile';
 export { computeDrawing, type ComputeOptions } from './compute';
 export { decodeDrawing } from './decode';
 export { drawingFault, type DrawingFault } from './fault';

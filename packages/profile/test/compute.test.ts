@@ -11,7 +11,7 @@ describe('computeDrawing', () => {
     const fromBytes = await computeDrawing(new TextEncoder().encode(plate), { name: 'plate', source: 'plate.dxf' });
     expect(fromBytes).toEqual(fromText);
     expect(fromText.units).toBe('mm');
-    expect(Object.keys(fromText.properties)).toEqual(PROPERTY_KEYS);
+    expect(Object.keys(fromText.properties)).toEqual([...PROPERTY_KEYS, 'J', 'Cw', 'xs', 'ys']);
     // A = bh − πr² = 5000 − 100π mm² — common practice.
     expect(Math.abs(fromText.properties.A - (5000 - 100 * Math.PI))).toBeLessThanOrEqual(1e-9 * 5000);
     expect(fromText.accuracy.A).toBe(EXACT);
@@ -21,6 +21,24 @@ describe('computeDrawing', () => {
     const p = await computeDrawing(plate, { name: 'plate', source: 'plate.dxf', units: 'cm' });
     expect(p.units).toBe('cm');
     expect(Math.abs(p.properties.A - (50 - Math.PI))).toBeLessThanOrEqual(1e-9 * 50);
+  });
+
+  it('adds torsion and warping by finite elements, converted with the unit, or skips them', async () => {
+    const bar = dxf(rectLines(0, 0, 100, 50));
+    const mm = await computeDrawing(bar, { name: 'bar', source: 'bar.dxf' });
+    // Rectangle w/t = 2: J = β·w·t³, β = 0.228682 — Timoshenko & Goodier, Theory of Elasticity, torsion of rectangular bars.
+    const J = 0.228682 * 100 * 50 ** 3;
+    expect(Math.abs(mm.properties.J! / J - 1)).toBeLessThanOrEqual(1e-3);
+    expect(mm.accuracy.J).toBeLessThanOrEqual(1e-3);
+    // Doubly symmetric: the shear centre is the centroid — Gere & Goodno, shear centres.
+    expect(Math.abs(mm.properties.xs! - 50)).toBeLessThanOrEqual(1e-6 * 100);
+    expect(Math.abs(mm.properties.ys! - 25)).toBeLessThanOrEqual(1e-6 * 100);
+    const cm = await computeDrawing(bar, { name: 'bar', source: 'bar.dxf', units: 'cm' });
+    expect(Math.abs(cm.properties.J! / (mm.properties.J! * 1e-4) - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(cm.properties.Cw! - mm.properties.Cw! * 1e-6)).toBeLessThanOrEqual(1e-12 * mm.properties.Cw! + 1e-9);
+    const fast = await computeDrawing(bar, { name: 'bar', source: 'bar.dxf', torsion: false });
+    expect(fast.properties.J).toBeUndefined();
+    expect(fast.accuracy.J).toBeUndefined();
   });
 
   it('states a fault in the drawing as its code and one line naming the source', async () => {
