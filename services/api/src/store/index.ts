@@ -1,0 +1,3 @@
+export * from './types';
+export { SqliteStore } from './sqlite';
+export { PostgresStore, type PostgresOptions } from './postgres';
