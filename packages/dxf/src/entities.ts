@@ -1,56 +1,35 @@
-import { TAU, arc, arcFromCentre, line, transformSegment, type Point, type Segment } from '@keelson/geometry';
-import { DxfError } from './errors';
-import { isIdentity, ocsToWorld } from './ocs';
-import type { ParsedEntity } from './parse';
-import { entityLabel, type EntitySource, type RawEntity } from './scan';
+import { TAU, arc, line, type Affine, type Segment } from '@keelson/geometry';
+import { ellipseSegment } from './ellipse';
+import type { Fields } from './fields';
+import { planeOf } from './ocs';
+import { lwpolylineSegments, polylineSegments } from './polyline';
+import { splineSegment } from './spline';
 
-/** A segment in world x, y and the entity it came from. */
-export interface Piece {
-  readonly seg: Segment;
-  readonly src: EntitySource;
-}
+/** Entity types that draw outlines. */
+export const OUTLINE_TYPES: ReadonlySet<string> = new Set(['LINE', 'ARC', 'CIRCLE', 'ELLIPSE', 'LWPOLYLINE', 'POLYLINE', 'SPLINE']);
 
-/** Entity types whose geometry Keelson reads; everything else is counted and reported. */
-export const READ_TYPES: ReadonlySet<string> = new Set(['LINE', 'ARC', 'CIRCLE', 'LWPOLYLINE', 'POLYLINE']);
+/** Text, dimensions and the like: never part of a section, counted in the warnings. */
+export const ANNOTATION_TYPES: ReadonlySet<string> = new Set([
+  'TEXT',
+  'MTEXT',
+  'ATTRIB',
+  'ATTDEF',
+  'DIMENSION',
+  'ARC_DIMENSION',
+  'LARGE_RADIAL_DIMENSION',
+  'LEADER',
+  'MLEADER',
+  'MULTILEADER',
+  'TOLERANCE',
+  'ACAD_TABLE',
+  'RTEXT',
+  'ARCALIGNEDTEXT',
+]);
 
-/** Reads one entity's numbers, failing with the entity named. */
-class Reader {
-  constructor(
-    readonly e: ParsedEntity,
-    readonly src: EntitySource,
-    readonly file: string,
-  ) {}
+/** Points and infinite construction lines: helpers of the drafter, not outlines. */
+export const CONSTRUCTION_TYPES: ReadonlySet<string> = new Set(['POINT', 'XLINE', 'RAY']);
 
-  fail(code: 'NON_FINITE' | 'INVALID_ENTITY', why: string): never {
-    throw new DxfError(code, this.file, `${entityLabel(this.src)}: ${why}`);
-  }
-
-  num(v: unknown, what: string): number {
-    if (typeof v !== 'number') this.fail('INVALID_ENTITY', `${what} is missing`);
-    if (!Number.isFinite(v)) this.fail('NON_FINITE', `${what} is ${v}, not a finite number`);
-    return v;
-  }
-
-  point(p: unknown, what: string): Point {
-    const o = (p ?? {}) as { x?: unknown; y?: unknown };
-    if (p === undefined) this.fail('INVALID_ENTITY', `${what} is missing`);
-    return { x: this.num(o.x, `${what} x`), y: this.num(o.y, `${what} y`) };
-  }
-
-  radius(v: unknown): number {
-    const r = this.num(v, 'radius');
-    if (!(r > 0)) this.fail('INVALID_ENTITY', `radius ${r} is not positive`);
-    return r;
-  }
-
-  /** OCS → world map; the entity must lie in a plane parallel to the world xy-plane. */
-  plane(n: { x?: number; y?: number; z?: number }): (s: Segment) => Segment {
-    const t = ocsToWorld(n);
-    if (!t)
-      this.fail('INVALID_ENTITY', `not drawn in the xy-plane (extrusion direction ${n.x ?? 0}, ${n.y ?? 0}, ${n.z ?? 1})`);
-    return isIdentity(t) ? (s) => s : (s) => transformSegment(t, s);
-  }
-}
+const DEG = Math.PI / 180;
 
 /** Counter-clockwise sweep from `start` to `end` (radians) within (0, 2π]: an ARC from 350° to 10° turns 20°. */
 export function ccwSweep(start: number, end: number): number {
@@ -59,89 +38,52 @@ export function ccwSweep(start: number, end: number): number {
   return w <= 1e-12 ? TAU : w;
 }
 
-/**
- * The arc from p to q of a polyline vertex with bulge b = tan(sweep/4), sweep signed
- * (positive counter-clockwise). The centre lies on the chord's perpendicular bisector at
- * d(1 − b²)/(4b) to the left of p→q (AutoCAD DXF Reference, LWPOLYLINE group 42).
- */
-export function bulgeSegment(p: Point, q: Point, b: number): Segment {
-  if (b === 0 || (p.x === q.x && p.y === q.y)) return line(p, q);
-  const dx = q.x - p.x;
-  const dy = q.y - p.y;
-  const k = (1 - b * b) / (4 * b);
-  const c = { x: (p.x + q.x) / 2 - dy * k, y: (p.y + q.y) / 2 + dx * k };
-  return arcFromCentre(c, p, 4 * Math.atan(b));
-}
-
-interface Vertex {
-  x?: unknown;
-  y?: unknown;
-  bulge?: unknown;
-  startWidth?: unknown;
-  endWidth?: unknown;
-}
-
-function extrusionOf(e: ParsedEntity, raw: RawEntity | undefined): { x?: number; y?: number; z?: number } {
-  if (raw) return raw.extrusion;
-  const n = (k: string) => (typeof e[k] === 'number' ? (e[k] as number) : undefined);
-  return { x: n('extrusionDirectionX'), y: n('extrusionDirectionY'), z: n('extrusionDirectionZ') };
+export function radius(f: Fields, code = 40): number {
+  const r = f.num(code, 'radius');
+  if (!(r > 0)) f.fail('INVALID_ENTITY', `radius ${r} is not positive`);
+  return r;
 }
 
 /**
- * Segments of one LINE, ARC, CIRCLE, LWPOLYLINE or 2D POLYLINE in world coordinates (OCS applied to
- * all but LINE, which is stored in world coordinates); null for an entity of a kind not read.
- * Polyline widths are ignored, with a warning.
+ * Segments of one outline entity in the coordinates it is placed in (the world, or its block's),
+ * the entity's OCS applied: LINE, SPLINE and ELLIPSE are stored in world coordinates, ARC, CIRCLE
+ * and the polylines in their OCS (AutoCAD DXF Reference, "Object Coordinate Systems").
+ * Null for a POLYLINE kind that is not an outline (3D polylines, meshes).
  */
-export function entitySegments(
-  e: ParsedEntity,
-  src: EntitySource,
-  raw: RawEntity | undefined,
-  file: string,
-  warnings: string[],
-): Segment[] | null {
-  const r = new Reader(e, src, file);
-  switch (e.type) {
-    case 'LINE': {
-      const v = Array.isArray(e.vertices) ? (e.vertices as unknown[]) : [];
-      if (v.length !== 2) r.fail('INVALID_ENTITY', 'start or end point is missing');
-      return [line(r.point(v[0], 'start point'), r.point(v[1], 'end point'))];
-    }
+export function outlineSegments(f: Fields, type: string, children: readonly Fields[], warnings: string[]): Segment[] | null {
+  switch (type) {
+    case 'LINE':
+      return [line(f.point(10, 'start point'), f.point(11, 'end point'))];
     case 'ARC': {
-      const c = r.point(e.center, 'centre');
-      const rad = r.radius(e.radius);
-      const a0 = r.num(e.startAngle, 'start angle');
-      const a1 = r.num(e.endAngle, 'end angle');
-      return [r.plane(extrusionOf(e, raw))(arc(c, rad, a0, ccwSweep(a0, a1)))];
+      const c = f.point(10, 'centre');
+      const r = radius(f);
+      const a0 = f.num(50, 'start angle') * DEG;
+      const a1 = f.num(51, 'end angle') * DEG;
+      return [planeOf(f)(arc(c, r, a0, ccwSweep(a0, a1)))];
     }
-    case 'CIRCLE': {
-      const c = r.point(e.center, 'centre');
-      // dxf-parser drops a CIRCLE's extrusion direction: it comes from the raw scan.
-      return [r.plane(extrusionOf(e, raw))(arc(c, r.radius(e.radius), 0, TAU))];
-    }
+    case 'CIRCLE':
+      return [planeOf(f)(arc(f.point(10, 'centre'), radius(f), 0, TAU))];
+    case 'ELLIPSE':
+      return [ellipseSegment(f)];
+    case 'SPLINE':
+      return [splineSegment(f)];
     case 'LWPOLYLINE':
-      return polylineSegments(r, e, src, raw, warnings);
-    case 'POLYLINE': {
-      // Old-style POLYLINE: only the plain 2D kind is an outline; 3D polylines, meshes and smoothed
-      // (curve- or spline-fit) ones are reported instead, as their drawn shape is not their vertices'.
-      if (e.is3dPolyline || e.is3dPolygonMesh || e.isPolyfaceMesh) return null;
-      if (e.includesCurveFitVertices || e.includesSplineFitVertices) return null;
-      return polylineSegments(r, e, src, raw, warnings);
-    }
+      return lwpolylineSegments(f, warnings);
+    case 'POLYLINE':
+      return polylineSegments(f, children, warnings);
     default:
-      return null;
+      throw new RangeError(`not an outline entity type: ${type}`);
   }
 }
 
-/** LWPOLYLINE or 2D POLYLINE: straight or bulged sides between vertices, closed by flag 70 bit 1. */
-function polylineSegments(r: Reader, e: ParsedEntity, src: EntitySource, raw: RawEntity | undefined, warnings: string[]): Segment[] {
-  const vs = (Array.isArray(e.vertices) ? e.vertices : []) as Vertex[];
-  const pts = vs.map((v, i) => r.point(v, `vertex ${i + 1}`));
-  const bulges = vs.map((v, i) => (v.bulge === undefined ? 0 : r.num(v.bulge, `bulge of vertex ${i + 1}`)));
-  const wide = (typeof e.width === 'number' && e.width !== 0) || vs.some((v) => Boolean(v.startWidth) || Boolean(v.endWidth));
-  if (wide) warnings.push(`${entityLabel(src)} has a width: its centreline is used`);
-  const toWorld = r.plane(extrusionOf(e, raw));
-  const segs: Segment[] = [];
-  const n = e.shape === true ? pts.length : pts.length - 1;
-  for (let i = 0; i < n; i++) segs.push(toWorld(bulgeSegment(pts[i]!, pts[(i + 1) % pts.length]!, bulges[i]!)));
-  return segs;
+/** x' = M·x + t of `a` after `b`. */
+export function compose(a: Affine, b: Affine): Affine {
+  return {
+    a: a.a * b.a + a.b * b.c,
+    b: a.a * b.b + a.b * b.d,
+    c: a.c * b.a + a.d * b.c,
+    d: a.c * b.b + a.d * b.d,
+    tx: a.a * b.tx + a.b * b.ty + a.tx,
+    ty: a.c * b.tx + a.d * b.ty + a.ty,
+  };
 }

@@ -1,10 +1,5 @@
-import type { Affine } from '@keelson/geometry';
-
-interface Vec3 {
-  x: number;
-  y: number;
-  z: number;
-}
+import { transformSegment, type Affine, type Segment } from '@keelson/geometry';
+import type { Fields, Vec3 } from './fields';
 
 const cross = (a: Vec3, b: Vec3): Vec3 => ({ x: a.y * b.z - a.z * b.y, y: a.z * b.x - a.x * b.z, z: a.x * b.y - a.y * b.x });
 const unit = (a: Vec3): Vec3 => {
@@ -31,14 +26,20 @@ const PLANAR = 1e-9;
 /**
  * The map from OCS x, y to world x, y for an entity lying in a plane parallel to the world xy-plane:
  * identity for n = (0, 0, 1), the mirror x → −x for n = (0, 0, −1). Null when the entity's plane
- * is tilted, so its circles would project to ellipses. Missing components take the DXF defaults (0, 0, 1).
+ * is tilted, so its circles would project to ellipses: a cross-section is drawn flat.
  */
-export function ocsToWorld(n: { x?: number; y?: number; z?: number }): Affine | null {
-  const v = { x: n.x ?? 0, y: n.y ?? 0, z: n.z ?? 1 };
-  const len = Math.hypot(v.x, v.y, v.z);
-  if (!(len > 0) || Math.hypot(v.x, v.y) > PLANAR * len) return null;
-  const { ax, ay } = ocsAxes(v);
+export function ocsToWorld(n: Vec3): Affine | null {
+  const len = Math.hypot(n.x, n.y, n.z);
+  if (!(len > 0) || !(Math.hypot(n.x, n.y) <= PLANAR * len)) return null;
+  const { ax, ay } = ocsAxes(n);
   return { a: ax.x, b: ay.x, c: ax.y, d: ay.y, tx: 0, ty: 0 };
 }
 
-export const isIdentity = (t: Affine): boolean => t.a === 1 && t.b === 0 && t.c === 0 && t.d === 1;
+export const isIdentity = (t: Affine): boolean => t.a === 1 && t.b === 0 && t.c === 0 && t.d === 1 && t.tx === 0 && t.ty === 0;
+
+/** OCS → world map of an entity (its extrusion by default), refusing one not drawn parallel to the xy-plane. */
+export function planeOf(f: Fields, n: Vec3 = f.extrusion()): (s: Segment) => Segment {
+  const t = ocsToWorld(n);
+  if (!t) f.fail('INVALID_ENTITY', `not drawn in the xy-plane (extrusion direction ${n.x}, ${n.y}, ${n.z})`);
+  return isIdentity(t) ? (s) => s : (s) => transformSegment(t, s);
+}

@@ -1,6 +1,11 @@
 import { endPoint, evalSegment, line, paramRange, reverseSegment, segmentRange, startPoint, type Loop, type Point, type Segment } from '@keelson/geometry';
-import type { Piece } from './entities';
-import type { EntitySource } from './scan';
+import type { EntitySource } from './source';
+
+/** A segment in world x, y and the entity it came from. */
+export interface Piece {
+  readonly seg: Segment;
+  readonly src: EntitySource;
+}
 
 /** Why stitching failed, with the places to look at; read.ts turns it into a DxfError. */
 export interface StitchFault {
@@ -13,8 +18,9 @@ export interface StitchFault {
 
 export interface Stitched {
   readonly loops: Loop[];
-  /** Largest distance an end was moved to meet another (drawing units). */
+  /** Largest distance an end was moved to meet another (drawing units), and where. */
   readonly largestGap: number;
+  readonly largestGapAt: Point | null;
   /** Segments dropped because they coincide with another one. */
   readonly duplicates: EntitySource[];
   /** Segments dropped because both their ends fall on one point. */
@@ -50,6 +56,13 @@ class UnionFind {
 }
 
 const dist = (p: Point, q: Point) => Math.hypot(p.x - q.x, p.y - q.y);
+
+function sizeOf(seg: Segment): number {
+  const o = { x: 0, y: 0 };
+  const [a, b] = segmentRange(seg, 1, 0, o);
+  const [c, d] = segmentRange(seg, 0, 1, o);
+  return Math.max(b - a, d - c);
+}
 
 /**
  * Groups end points closer than tol (chains of such points merge). Points are binned in a grid of
@@ -113,7 +126,11 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
     if (onArc) repOnArc.add(k);
   });
   let largestGap = 0;
-  ends.forEach((p, i) => (largestGap = Math.max(largestGap, dist(p, rep.get(cluster[i]!)!))));
+  let largestGapAt: Point | null = null;
+  ends.forEach((p, i) => {
+    const d = dist(p, rep.get(cluster[i]!)!);
+    if (d > largestGap) [largestGap, largestGapAt] = [d, p];
+  });
 
   const edges: Edge[] = [];
   const duplicates: EntitySource[] = [];
@@ -122,8 +139,8 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
   pieces.forEach(({ seg, src }, i) => {
     const u = cluster[2 * i]!;
     const v = cluster[2 * i + 1]!;
-    const full = seg.kind === 'arc' && Math.abs(seg.sweep) > Math.PI;
-    if (u === v && !full) {
+    // A curve whose ends meet is a loop by itself (a circle, a whole ellipse, a closed spline) unless it is tiny.
+    if (u === v && !(seg.kind !== 'line' && sizeOf(seg) > 2 * tol)) {
       degenerate++;
       return;
     }
@@ -162,7 +179,7 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
         : open.length
           ? { kind: 'open', closed, at: open }
           : null;
-  return { loops: loops.filter((l) => l.closed).map((l) => l.loop), largestGap, duplicates, degenerate, fault };
+  return { loops: loops.filter((l) => l.closed).map((l) => l.loop), largestGap, largestGapAt, duplicates, degenerate, fault };
 }
 
 /**

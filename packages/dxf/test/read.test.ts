@@ -64,7 +64,7 @@ describe('entities', () => {
     const mirrored = await read(dxf([POLYLINE([[0, 0], [20, 0, 1], [20, 10], [0, 10, 1]], 1, -1)]));
     close(sectionProperties(mirrored.region).cx, -10);
     const d = await read(dxf([...rectLines(0, 0, 1, 1), POLYLINE([[5, 5], [6, 5], [6, 6]], 8)]));
-    expect(d.warnings.join()).toMatch(/ignored 1 POLYLINE \(3D, mesh or smoothed\)/);
+    expect(d.warnings.join()).toMatch(/ignored 1 POLYLINE \(3D polyline or mesh\)/);
   });
 
   it('an ARC from 350° to 10° sweeps 20°, not −340°', async () => {
@@ -101,14 +101,20 @@ describe('entities', () => {
     await expect(read(t)).rejects.toMatchObject({ code: 'INVALID_ENTITY', message: /CIRCLE \(handle AB, layer Profile, line \d+\): not drawn in the xy-plane/ });
   });
 
-  it('other entity types are counted in warnings, paper space too', async () => {
-    const spline: Tag[] = [[0, 'SPLINE'], [8, '0'], [10, 0], [20, 0]];
+  it('other entity types are counted in warnings by kind, paper space too', async () => {
+    const solid: Tag[] = [[0, 'SOLID'], [8, '0'], [10, 0], [20, 0]];
     const text: Tag[] = [[0, 'TEXT'], [8, '0'], [10, 0], [20, 0], [1, 'hello']];
+    const dim: Tag[] = [[0, 'DIMENSION'], [8, '0'], [2, '*D1']];
+    const xline: Tag[] = [[0, 'XLINE'], [8, '0'], [10, 0], [20, 0], [11, 1], [21, 0]];
     const paper: Tag[] = [...LINE([0, 0], [1, 1]), [67, 1]];
-    const d = await read(dxf([...rectLines(0, 0, 2, 1), spline, text, spline, paper]));
-    expect(d.warnings).toContain('ignored 2 SPLINE, 1 TEXT: Keelson reads LINE, ARC, CIRCLE, LWPOLYLINE and 2D POLYLINE');
-    expect(d.warnings).toContain('ignored 1 paper-space entity');
-    expect(d.stats).toEqual({ entities: 7, segments: 4, loops: 1 });
+    const d = await read(dxf([...rectLines(0, 0, 2, 1), solid, text, dim, solid, xline, paper]));
+    expect(d.warnings).toEqual([
+      'ignored annotation: 1 DIMENSION, 1 TEXT',
+      'ignored construction entities: 1 XLINE',
+      'not read (entity types Keelson does not read): 2 SOLID',
+      'ignored 1 paper-space entity',
+    ]);
+    expect(d.stats).toEqual({ entities: 9, segments: 4, loops: 1 });
   });
 });
 
@@ -123,13 +129,19 @@ describe('stitching and nesting', () => {
     close(sectionProperties(d.region).cx, 1.5);
   });
 
-  it('closes rounding-level gaps and reports larger ones as open ends with coordinates', async () => {
-    const gap = 1e-10; // below 1e-9 of the 100-unit extent
+  it('closes gaps below the join tolerance (1e-6 of the extent) and reports larger ones as open ends with coordinates', async () => {
+    const gap = 1e-7;
     const d = await read(dxf([LINE([0, 0], [100, 0]), LINE([100, gap], [100, 50]), LINE([100, 50], [0, 50]), LINE([0, 50], [0, gap])]));
     close(area(d.region), 5000, 1e-9);
-    expect(d.warnings.join()).toMatch(/closed gaps between segment ends up to 1\.0e-10 mm/);
+    expect(d.warnings.join()).toMatch(/closed gaps between segment ends up to 1e-7 mm \(largest at \(100, 1e-7\)\)/);
+    expect(d.deviation).toBe(gap);
     const open = dxf([LINE([0, 0], [100, 0]), LINE([100, 0.001], [100, 50]), LINE([100, 50], [0, 50]), LINE([0, 50], [0, 0])]);
-    await expect(read(open)).rejects.toMatchObject({ code: 'NO_CLOSED_OUTLINE', message: /2 open ends at \(100, 0\) on LINE .*\(100, 0\.001\) on LINE/ });
+    await expect(read(open)).rejects.toMatchObject({
+      code: 'NO_CLOSED_OUTLINE',
+      message: /2 open ends at \(100, 0\) on LINE .*\(100, 0\.001\) on LINE .*; open ends up to 0\.001 mm apart, the join tolerance is 0\.0001 mm/,
+    });
+    // A larger tolerance closes it.
+    close(area((await read(open, { joinTolerance: 0.002 })).region), 5000, 1e-5);
   });
 
   it('open ends beside a closed loop are an open outline', async () => {
@@ -137,15 +149,21 @@ describe('stitching and nesting', () => {
     await expect(read(t)).rejects.toMatchObject({ code: 'OPEN_OUTLINE', message: /^t\.dxf: open outline: 2 open ends at \(20, 0\)/ });
   });
 
-  it('removes duplicate lines, refuses junctions and crossings', async () => {
+  it('removes duplicate and overlapping collinear lines, refuses junctions, unites crossing loops', async () => {
     const dup = await read(dxf([...rectLines(0, 0, 2, 1), LINE([2, 0], [0, 0])]));
     close(area(dup.region), 2);
     expect(dup.warnings.join()).toMatch(/removed 1 duplicate segment/);
     // Two unit squares side by side drawn as one outline plus the shared edge: three ends at (1, 0) and (1, 1).
     const t = dxf([...rectLines(0, 0, 1, 1), LINE([1, 0], [2, 0]), LINE([2, 0], [2, 1]), LINE([2, 1], [1, 1])]);
     await expect(read(t)).rejects.toMatchObject({ code: 'BRANCHING_OUTLINE', message: /more than two segment ends meet at \(1, [01]\)/ });
-    const crossing = dxf([...rectLines(0, 0, 2, 2), ...rectLines(1, 1, 2, 2)]);
-    await expect(read(crossing)).rejects.toMatchObject({ code: 'CROSSING_OUTLINE', message: /at \((2, 1|1, 2)\)/ });
+    // The bottom side drawn again in two pieces that overlap it: folded into one line.
+    const overlap = await read(dxf([...rectLines(0, 0, 4, 1), LINE([0, 0], [2.5, 0]), LINE([4, 0], [1.5, 0])]));
+    close(area(overlap.region), 4);
+    expect(overlap.warnings.join()).toMatch(/merged 2 line\(s\) overlapping others along the same line/);
+    // Two 2 × 2 squares overlapping by a unit square: 4 + 4 − 1 — composite areas, common practice.
+    const crossing = await read(dxf([...rectLines(0, 0, 2, 2), ...rectLines(1, 1, 2, 2)]));
+    close(area(crossing.region), 7);
+    expect(crossing.warnings.join()).toMatch(/2 overlapping outlines united into 1 part/);
   });
 
   it('nests holes and islands', async () => {
