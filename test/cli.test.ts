@@ -99,7 +99,10 @@ describe('keelson props on a good drawing', () => {
     const r = keelson('props', folder, '--json');
     expect(r.code).toBe(2);
     expect(r.err.trimEnd().split('\n')).toEqual([expect.stringMatching(/^keelson: .*c-broken\.dxf: no closed outline: 2 open ends/)]);
-    expect((JSON.parse(r.out) as { profiles: { name: string }[] }).profiles.map((p) => p.name)).toEqual(['a-square', 'b-plate']);
+    const entries = (JSON.parse(r.out) as { profiles: { name: string; error?: { code: string; message: string } }[] }).profiles;
+    expect(entries.map((p) => p.name)).toEqual(['a-square', 'b-plate', 'c-broken']);
+    // The broken drawing's entry carries its error in place of properties.
+    expect(entries[2]!.error).toEqual({ code: 'NO_CLOSED_OUTLINE', message: expect.stringMatching(/c-broken\.dxf: no closed outline: 2 open ends/) });
   });
 
   it('--drawing-units reads a drawing without $INSUNITS; feet are reported in inches', () => {

@@ -14,3 +14,4 @@ export { SPLIT_MODES, type SplitMode } from './split';
 export type { LayerSelection } from './layers';
 export { DxfError, DXF_ERROR_CODES, type DxfErrorCode } from './errors';
 export * from './write';
+export { deviationBounds } from './accuracy';

@@ -1,11 +1,10 @@
-import { availableParallelism } from 'node:os';
-import { readDrawing, type Drawing } from '@keelson/dxf';
+import { readProfiles, type Drawing, type ReadOptions } from '@keelson/dxf';
 import type { PropsArgs } from './args';
 import { faultOf, type Fault } from './faults';
 import { formatCsv } from './format-csv';
-import { formatJson } from './format-json';
+import { formatJson, type FailedProfile } from './format-json';
 import { formatTable } from './format-table';
-import { listInputs, readText, type Input } from './inputs';
+import { listInputs, type Input } from './inputs';
 import { defaultOutputUnit, profileOf, type Profile } from './profile';
 
 export interface Io {
@@ -15,28 +14,26 @@ export interface Io {
   readonly debug: boolean;
 }
 
-type Outcome<T> = { ok: true; value: T } | { ok: false; fault: Fault };
+/** One profile of a drawing as read, or why a drawing (or one profile of it) was not. */
+type Read = { readonly drawing: Drawing; readonly source: string } | { readonly name: string; readonly source: string; readonly fault: Fault };
 
-/** Runs `f` on each item, at most `limit` at a time, results in item order. */
-async function mapLimited<T, R>(items: readonly T[], limit: number, f: (t: T) => Promise<R>): Promise<R[]> {
-  const out: R[] = new Array(items.length);
-  let next = 0;
-  const lane = async () => {
-    while (next < items.length) {
-      const i = next++;
-      out[i] = await f(items[i]!);
-    }
-  };
-  await Promise.all(Array.from({ length: Math.min(limit, items.length) }, lane));
-  return out;
-}
-
-async function load(input: Input, args: PropsArgs): Promise<Outcome<Drawing>> {
+/** Every profile of one input: a fault of the drawing is one entry, a split drawing's faulty profile another. */
+async function load(input: Input, args: PropsArgs): Promise<Read[]> {
   try {
-    const text = await readText(input.source);
-    return { ok: true, value: await readDrawing(text, { file: input.source, drawingUnits: args.drawingUnits }) };
+    const opts: ReadOptions = {
+      file: input.source,
+      name: input.name,
+      drawingUnits: args.drawingUnits,
+      split: args.split,
+      layers: args.layers,
+      excludeLayers: args.excludeLayers,
+      hiddenLayers: args.hiddenLayers,
+      joinTolerance: args.joinTolerance,
+    };
+    const set = await readProfiles(await input.text(), opts);
+    return set.profiles.map((p) => ('error' in p ? { name: p.name, source: input.source, fault: faultOf(p.error) } : { drawing: p, source: input.source }));
   } catch (e) {
-    return { ok: false, fault: faultOf(e, input.source) };
+    return [{ name: input.name, source: input.source, fault: faultOf(e, input.source) }];
   }
 }
 
@@ -45,10 +42,17 @@ function report(io: Io, fault: Fault): void {
   if (fault.exit === 1 && io.debug && fault.stack) io.err(fault.stack);
 }
 
+const failed = (name: string, source: string, f: Fault): FailedProfile => ({
+  name,
+  source,
+  error: { code: f.code, message: f.line.replace(/^keelson: /, '') },
+});
+
 /**
- * `keelson props <file|folder>`: one profile per drawing, printed as a table, JSON or CSV. A drawing
- * that cannot be read gets its one-line error and the others still print. Exit 0 when every drawing
- * was read, 1 on an internal fault, else 2.
+ * `keelson props <file|folder|catalogue.zip>`: the profiles of every drawing, printed as a table,
+ * JSON or CSV. A drawing (or a profile of a split drawing) that cannot be read gets its one-line
+ * error on stderr, and in JSON an entry with `error` in its place; the others still print. Exit 0
+ * when everything was read, 1 on an internal fault, else 2.
  */
 export async function propsCommand(args: PropsArgs, io: Io): Promise<number> {
   let inputs: Input[];
@@ -59,32 +63,36 @@ export async function propsCommand(args: PropsArgs, io: Io): Promise<number> {
     report(io, f);
     return f.exit;
   }
-  const loaded = await mapLimited(inputs, Math.max(1, Math.min(4, availableParallelism())), (i) => load(i, args));
+  // Drawings are read one after another: reading is CPU-bound on this thread.
+  const reads: Read[] = [];
+  for (const input of inputs) reads.push(...(await load(input, args)));
   // CSV states one unit in its header: without --units, that of the first drawing read.
-  const first = loaded.find((o) => o.ok);
-  const csvUnits = args.units ?? (first?.ok ? defaultOutputUnit(first.value.unit) : 'mm');
+  const first = reads.find((r) => 'drawing' in r);
+  const csvUnits = args.units ?? (first && 'drawing' in first ? defaultOutputUnit(first.drawing.unit) : 'mm');
   const units = args.format === 'csv' ? csvUnits : args.units;
 
-  const profiles: Profile[] = [];
+  const entries: (Profile | FailedProfile)[] = [];
   const faults: Fault[] = [];
-  loaded.forEach((o, i) => {
-    const input = inputs[i]!;
-    try {
-      if (!o.ok) throw o;
-      profiles.push(profileOf(o.value, input.name, input.source, units));
-    } catch (e) {
-      const f = (e as Outcome<Drawing>).ok === false ? (e as { fault: Fault }).fault : faultOf(e, input.source);
-      faults.push(f);
-      report(io, f);
-    }
-  });
-
-  if (profiles.length) {
-    if (args.format === 'json') io.out(formatJson(profiles));
-    else if (args.format === 'csv') {
-      io.out(formatCsv(profiles, csvUnits));
-      for (const p of profiles) for (const w of p.warnings) io.err(`keelson: ${p.source}: warning: ${w}`);
-    } else io.out(formatTable(profiles));
+  for (const r of reads) {
+    let f: Fault;
+    if ('drawing' in r)
+      try {
+        entries.push(profileOf(r.drawing, r.drawing.name, r.source, units));
+        continue;
+      } catch (e) {
+        f = faultOf(e, r.source);
+      }
+    else f = r.fault;
+    faults.push(f);
+    report(io, f);
+    entries.push(failed('drawing' in r ? r.drawing.name : r.name, r.source, f));
   }
+
+  const profiles = entries.filter((e): e is Profile => !('error' in e));
+  if (args.format === 'json' && (profiles.length || inputs.length > 1 || entries.length > 1)) io.out(formatJson(entries));
+  else if (profiles.length && args.format === 'csv') {
+    io.out(formatCsv(profiles, csvUnits));
+    for (const p of profiles) for (const w of p.warnings) io.err(`keelson: ${p.source}: warning: ${w}`);
+  } else if (profiles.length && args.format === 'table') io.out(formatTable(profiles));
   return faults.some((f) => f.exit === 1) ? 1 : faults.length ? 2 : 0;
 }

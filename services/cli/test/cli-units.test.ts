@@ -54,7 +54,7 @@ describe('sig4', () => {
 
 describe('faultOf', () => {
   it('bad input exits 2 with the file named once', () => {
-    expect(faultOf(new DxfError('EMPTY_FILE', 'a.dxf', 'file is empty'), 'a.dxf')).toEqual({ line: 'keelson: a.dxf: file is empty', exit: 2 });
+    expect(faultOf(new DxfError('EMPTY_FILE', 'a.dxf', 'file is empty'), 'a.dxf')).toEqual({ line: 'keelson: a.dxf: file is empty', code: 'EMPTY_FILE', exit: 2 });
     expect(faultOf(new GeometryError('EMPTY_REGION', 'region has no parts'), 'b.dxf').line).toBe('keelson: b.dxf: region has no parts');
   });
 
