@@ -9,6 +9,6 @@ export {
   type ProfileOptions,
   type TorsionValues,
 } from './profile';
-export { computeDrawing, type ComputeOptions } from './compute';
+export { computeDrawing, computeProfiles, type ComputeOptions, type FailedProfile } from './compute';
 export { decodeDrawing } from './decode';
 export { drawingFault, type DrawingFault } from './fault';

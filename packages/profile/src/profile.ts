@@ -9,7 +9,7 @@ import {
   type PropertyKey,
   type SectionProperties,
 } from '@keelson/geometry';
-import type { Drawing } from '@keelson/dxf';
+import { deviationBounds, type Drawing } from '@keelson/dxf';
 import { torsionProperties } from '@keelson/torsion';
 
 /** Torsion and warping, by finite elements: J (L⁴), Cw about the shear centre (L⁶), shear centre xs, ys (L). */
@@ -86,7 +86,14 @@ export function profileOf(drawing: Drawing, name: string, source: string, opts: 
   const isotropic = split <= 1e-6;
   if (raw.theta === 0 && split <= 1e-12) warnings.push('I1 = I2: every centroidal axis is principal; theta shown as 0');
   else if (isotropic) warnings.push('I1 ≈ I2 (within 1e-6): the principal directions, theta, S1 and S2 are ill-conditioned');
-  for (const k of PROPERTY_KEYS) if (!(isotropic && (k === 'theta' || k === 'S1' || k === 'S2'))) accuracy[k] = EXACT;
+  // Where the region is not the drawing to rounding (gaps closed, curves flattened), the first-order bound of each key.
+  const bounds = deviationBounds(raw, drawing.deviation, drawing.stats.segments);
+  const exact = !(drawing.deviation > 0);
+  for (const k of PROPERTY_KEYS) {
+    if (isotropic && (k === 'theta' || k === 'S1' || k === 'S2')) continue;
+    const b = bounds[k];
+    if (exact || b !== undefined) accuracy[k] = Math.max(EXACT, b ?? 0);
+  }
   if (opts.torsion === false) return { name, source, units: out, properties, accuracy, warnings };
 
   const t = torsionProperties(drawing.region, { target: opts.torsion ?? 1e-3 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { CIRCLE, dxf, rectLines } from '../../dxf/test/dxf';
-import { computeDrawing, drawingFault, EXACT, PROPERTY_KEYS } from '../src';
+import { computeDrawing, computeProfiles, drawingFault, EXACT, PROPERTY_KEYS } from '../src';
 
 // Plate 100 × 50 mm with a centred hole of diameter 20.
 const plate = dxf([...rectLines(0, 0, 100, 50), CIRCLE([50, 25], 10)]);
@@ -48,5 +48,17 @@ describe('computeDrawing', () => {
     expect(f?.message).toMatch(/^up\/x\.dxf: .*--drawing-units/);
     expect(f?.message).not.toMatch(/\n/);
     expect(drawingFault(new TypeError('bug'), 'x')).toBeNull();
+  });
+});
+
+describe('computeProfiles', () => {
+  it('gives one profile per island with split=islands, named after the drawing', async () => {
+    // Two separate 10 × 10 squares — common practice.
+    const two = dxf([...rectLines(0, 0, 10, 10), ...rectLines(20, 0, 10, 10)]);
+    const one = await computeProfiles(two, { name: 'pair', source: 'pair.dxf', torsion: false });
+    expect(one).toHaveLength(1);
+    const split = await computeProfiles(two, { name: 'pair', source: 'pair.dxf', torsion: false, split: 'islands' });
+    expect(split.map((p) => p.name)).toEqual(['pair-1', 'pair-2']);
+    for (const p of split) expect('properties' in p && p.properties.A).toBe(100);
   });
 });
