@@ -46,9 +46,9 @@ export function storeSuite(name: string, open: () => Promise<{ store: Store; cle
     });
 
     it('keeps the first result written under a key', async () => {
-      await store.putResult(`k-${name}`, { profile: { name: 'first', properties: { A: 1.5 } } }, 1);
-      await store.putResult(`k-${name}`, { profile: { name: 'second' } }, 2);
-      expect(await store.getResult(`k-${name}`)).toEqual({ profile: { name: 'first', properties: { A: 1.5 } } });
+      await store.putResult(`k-${name}`, { profiles: [{ name: 'first', properties: { A: 1.5 } }] }, 1);
+      await store.putResult(`k-${name}`, { profiles: [{ name: 'second' }] }, 2);
+      expect(await store.getResult(`k-${name}`)).toEqual({ profiles: [{ name: 'first', properties: { A: 1.5 } }] });
       await store.putResult(`e-${name}`, { error: { code: 'OPEN_OUTLINE', message: 'x.dxf: open outline' } }, 1);
       expect(await store.getResult(`e-${name}`)).toEqual({ error: { code: 'OPEN_OUTLINE', message: 'x.dxf: open outline' } });
       expect(await store.getResult('missing')).toBeNull();
@@ -94,7 +94,7 @@ export function storeSuite(name: string, open: () => Promise<{ store: Store; cle
       expect((await store.getJob('t', j))!.status).toBe('running');
       expect(await store.claimItems(claimOpts)).toEqual([]);
 
-      await store.putResult(`r-${j}`, { profile: { name: 'p' } }, 2);
+      await store.putResult(`r-${j}`, { profiles: [{ name: 'p' }] }, 2);
       const sorted = all.sort((x, y) => x.idx - y.idx);
       expect(await store.completeItem(sorted[0]!, { resultKey: `r-${j}` }, 2)).toBe(true);
       expect(await store.completeItem(sorted[0]!, { resultKey: `r-${j}` }, 2)).toBe(false);
@@ -105,7 +105,7 @@ export function storeSuite(name: string, open: () => Promise<{ store: Store; cle
       expect(job).toMatchObject({ status: 'done', finishedAt: 4 });
       expect(job.counts).toMatchObject({ total: 3, done: 2, failed: 1 });
       const done = await store.listItems('t', j);
-      expect(done[0]!.result).toEqual({ profile: { name: 'p' } });
+      expect(done[0]!.result).toEqual({ profiles: [{ name: 'p' }] });
       expect(done[1]!.error).toEqual({ code: 'OPEN_OUTLINE', message: 'd1: open' });
     });
 
@@ -115,7 +115,8 @@ export function storeSuite(name: string, open: () => Promise<{ store: Store; cle
       await store.createJob({ id: j, tenant: 't', createdAt: 1, settings: {}, upload }, items(1));
       const [first] = await store.claimItems({ ...claimOpts, now: 1_000, leaseMs: 100 });
       expect(await store.claimItems({ ...claimOpts, now: 1_050 })).toEqual([]);
-      await store.renewLeases('w1', 1_200);
+      await store.renewLeases('w1', [first!.seq], 1_200);
+      await store.renewLeases('w2', [first!.seq], 5_000); // not its item: no effect
       expect(await store.claimItems({ ...claimOpts, now: 1_150 })).toEqual([]);
       const [second] = await store.claimItems({ ...claimOpts, owner: 'w2', now: 1_201 });
       expect(second).toMatchObject({ idx: 0, attempts: 2 });

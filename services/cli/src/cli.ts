@@ -1,10 +1,12 @@
 import { USAGE, parseArgs } from './args';
 import { faultOf } from './faults';
 import { propsCommand, type Io } from './props-command';
+import { serveCommand } from './serve-command';
 
 /** The whole CLI as a function of its arguments: returns the exit code. */
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   try {
+    if (argv[0] === 'serve') return await serveCommand(argv.slice(1), io);
     const args = parseArgs(argv);
     if (args.command === 'help') {
       io.out(`${USAGE}\n`);

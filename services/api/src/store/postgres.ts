@@ -240,8 +240,9 @@ export class PostgresStore implements Store {
     });
   }
 
-  async renewLeases(owner: string, until: number): Promise<void> {
-    await this.pool.query("UPDATE job_items SET lease_until = $1 WHERE owner = $2 AND status = 'running'", [until, owner]);
+  async renewLeases(owner: string, seqs: readonly number[], until: number): Promise<void> {
+    if (!seqs.length) return;
+    await this.pool.query("UPDATE job_items SET lease_until = $1 WHERE seq = ANY($2) AND owner = $3 AND status = 'running'", [until, seqs, owner]);
   }
 
   async completeItem(claim: Claim, outcome: Outcome, now: number): Promise<boolean> {

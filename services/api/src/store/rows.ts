@@ -5,12 +5,12 @@ export type Row = Record<string, unknown>;
 
 export const resultOf = (r: Row): StoredResult =>
   r.profile != null
-    ? { profile: JSON.parse(String(r.profile)) }
+    ? { profiles: JSON.parse(String(r.profile)) as unknown[] }
     : { error: { code: String(r.error_code), message: String(r.error_message) } };
 
 export const resultColumns = (result: StoredResult) =>
-  'profile' in result
-    ? { profile: JSON.stringify(result.profile), error_code: null, error_message: null }
+  'profiles' in result
+    ? { profile: JSON.stringify(result.profiles), error_code: null, error_message: null }
     : { profile: null, error_code: result.error.code, error_message: result.error.message };
 
 export function jobOf(r: Row, counts: Counts): JobRecord {

@@ -209,8 +209,11 @@ export class SqliteStore implements Store {
       .run(now, jobId, jobId);
   }
 
-  async renewLeases(owner: string, until: number): Promise<void> {
-    this.db.prepare("UPDATE job_items SET lease_until = ? WHERE owner = ? AND status = 'running'").run(until, owner);
+  async renewLeases(owner: string, seqs: readonly number[], until: number): Promise<void> {
+    const renew = this.db.prepare("UPDATE job_items SET lease_until = ? WHERE seq = ? AND owner = ? AND status = 'running'");
+    this.db.transaction(() => {
+      for (const seq of seqs) renew.run(until, seq, owner);
+    })();
   }
 
   async completeItem(claim: Claim, outcome: Outcome, now: number): Promise<boolean> {

@@ -85,8 +85,8 @@ export interface Claim {
   readonly token: string;
 }
 
-/** A computed outcome: the profile (JSON contract entry) or the drawing's fault. */
-export type StoredResult = { readonly profile: unknown } | { readonly error: ItemError };
+/** A computed outcome: the drawing's profiles (JSON contract entries, failed ones of a split drawing included) or its fault. */
+export type StoredResult = { readonly profiles: readonly unknown[] } | { readonly error: ItemError };
 
 export type Outcome = { readonly resultKey: string } | { readonly error: ItemError };
 
@@ -129,8 +129,8 @@ export interface Store {
   cancelJob(tenant: string, id: string, now: number): Promise<JobRecord | null>;
 
   claimItems(opts: ClaimOptions): Promise<Claim[]>;
-  /** Extends the lease of every item `owner` holds. */
-  renewLeases(owner: string, until: number): Promise<void>;
+  /** Extends the leases of the items `owner` is computing. */
+  renewLeases(owner: string, seqs: readonly number[], until: number): Promise<void>;
   /** Records the outcome if `claim` still holds the item; false otherwise. */
   completeItem(claim: Claim, outcome: Outcome, now: number): Promise<boolean>;
   /** Hands back items `owner` holds (graceful shutdown): pending again, the attempt not counted. */
