@@ -1,14 +1,8 @@
-import {
-  GeometryError,
-  TAU,
-  isRational,
-  startPoint,
-  type EllipseSegment,
-  type Loop,
-  type Point,
-  type Region,
-  type SplineSegment,
-} from '@keelson/geometry';
+import { GeometryError, TAU, startPoint, type EllipseSegment, type Loop, type Point, type Region } from '@keelson/geometry';
+import { writeEntity, type DxfEntity } from './write-entity';
+import { TagWriter } from './write-tags';
+
+export type { DxfEntity, DxfHatchEdge, DxfHatchPath, DxfNormal, DxfVertex } from './write-entity';
 
 /** Drawing units the writer can declare in `$INSUNITS`. */
 export type DxfUnit = 'mm' | 'cm' | 'm' | 'in' | 'ft';
@@ -28,34 +22,6 @@ export interface WriteDxfOptions {
   layer?: string;
   style?: DxfStyle;
 }
-
-/** One vertex of an LWPOLYLINE; `bulge` = tan(sweep/4) of the arc that starts here (0: a straight side). */
-export interface DxfVertex {
-  readonly x: number;
-  readonly y: number;
-  readonly bulge: number;
-}
-
-/**
- * Entities in drawing coordinates, as the file states them. ARC angles are in degrees and the arc
- * runs counter-clockwise from `startDeg` to `endDeg` (DXF has no clockwise arcs).
- */
-export type DxfEntity =
-  | { readonly type: 'LINE'; readonly a: Point; readonly b: Point }
-  | { readonly type: 'ARC'; readonly c: Point; readonly r: number; readonly startDeg: number; readonly endDeg: number }
-  | { readonly type: 'CIRCLE'; readonly c: Point; readonly r: number }
-  | { readonly type: 'LWPOLYLINE'; readonly vertices: readonly DxfVertex[] }
-  | {
-      readonly type: 'ELLIPSE';
-      readonly c: Point;
-      /** Major semi-axis as a vector from the centre; the minor one is `ratio` times it turned +90°. */
-      readonly major: Point;
-      readonly ratio: number;
-      /** Parameters (radians) of the counter-clockwise run from start to end. */
-      readonly startParam: number;
-      readonly endParam: number;
-    }
-  | { readonly type: 'SPLINE'; readonly spline: SplineSegment };
 
 const DEG = 180 / Math.PI;
 
@@ -128,102 +94,67 @@ export function regionEntities(region: Region, style: DxfStyle = 'polyline'): Dx
   return region.parts.flatMap((p) => [p.outer, ...p.holes].flatMap((l) => loopEntities(l, style)));
 }
 
-/** Shortest decimal that reads back as the same double (ECMAScript Number::toString). */
-function num(x: number): string {
-  if (!Number.isFinite(x)) throw new GeometryError('NON_FINITE', `cannot write ${x} to DXF`);
-  return String(x === 0 ? 0 : x); // no "-0"
+function checkName(what: string, name: string): void {
+  // Symbol names may not contain < > / \ " : ; ? * | = ` (AutoCAD symbol-table naming rules) nor line breaks.
+  if (name === '' || /[<>/\\":;?*|=`\r\n]/.test(name)) throw new RangeError(`invalid DXF ${what} name ${JSON.stringify(name)}`);
 }
 
-/** Group code / value pairs, one per line each, as ASCII DXF wants them. */
-class Tags {
-  private readonly out: string[] = [];
-  private handle = 0x20;
-
-  tag(code: number, value: string | number): this {
-    this.out.push(String(code), typeof value === 'number' ? num(value) : value);
-    return this;
-  }
-
-  /** Group 5: a fresh hexadecimal handle. */
-  nextHandle(): this {
-    return this.tag(5, (this.handle++).toString(16).toUpperCase());
-  }
-
-  /** Next free handle, for `$HANDSEED`. */
-  get handseed(): string {
-    return this.handle.toString(16).toUpperCase();
-  }
-
-  point(code: number, p: Point): this {
-    return this.tag(code, p.x)
-      .tag(code + 10, p.y)
-      .tag(code + 20, 0);
-  }
-
-  text(): string {
-    return this.out.join('\n') + '\n';
-  }
+/** A layer of the LAYER table: frozen (group 70 bit 1) or switched off (negative colour). */
+export interface DxfLayer {
+  readonly name: string;
+  readonly frozen?: boolean;
+  readonly off?: boolean;
 }
 
-function checkLayerName(layer: string): void {
-  // Layer names may not contain < > / \ " : ; ? * | = ` (AutoCAD symbol-table naming rules) nor line breaks.
-  if (layer === '' || /[<>/\\":;?*|=`\r\n]/.test(layer))
-    throw new RangeError(`invalid DXF layer name ${JSON.stringify(layer)}`);
+/** A block definition: its entities in block coordinates, inserted relative to `base`. */
+export interface DxfBlock {
+  readonly name: string;
+  readonly base?: Point;
+  readonly entities: readonly DxfEntity[];
 }
 
-function writeEntity(t: Tags, e: DxfEntity, layer: string): void {
-  t.tag(0, e.type).nextHandle().tag(100, 'AcDbEntity').tag(8, layer);
-  switch (e.type) {
-    case 'LINE':
-      t.tag(100, 'AcDbLine').point(10, e.a).point(11, e.b);
-      return;
-    case 'CIRCLE':
-      t.tag(100, 'AcDbCircle').point(10, e.c).tag(40, e.r);
-      return;
-    case 'ARC':
-      t.tag(100, 'AcDbCircle').point(10, e.c).tag(40, e.r).tag(100, 'AcDbArc').tag(50, e.startDeg).tag(51, e.endDeg);
-      return;
-    case 'LWPOLYLINE':
-      t.tag(100, 'AcDbPolyline').tag(90, e.vertices.length).tag(70, 1).tag(43, 0);
-      for (const v of e.vertices) {
-        t.tag(10, v.x).tag(20, v.y);
-        if (v.bulge !== 0) t.tag(42, v.bulge);
-      }
-      return;
-    case 'ELLIPSE':
-      t.tag(100, 'AcDbEllipse').point(10, e.c).point(11, e.major).tag(40, e.ratio).tag(41, e.startParam).tag(42, e.endParam);
-      return;
-    case 'SPLINE': {
-      const { degree, knots, controls } = e.spline;
-      const rational = isRational(e.spline);
-      // Flags: 8 planar, 4 rational.
-      t.tag(100, 'AcDbSpline').tag(70, 8 + (rational ? 4 : 0)).tag(71, degree).tag(72, knots.length).tag(73, controls.length).tag(74, 0);
-      for (const k of knots) t.tag(40, k);
-      for (const c of controls) {
-        t.point(10, c);
-        if (rational) t.tag(41, c.w);
-      }
-      return;
-    }
-  }
+export interface DxfDrawing {
+  readonly unit: DxfUnit;
+  /** `$INSUNITS` written as this code instead (0 unitless), or left out (null); default the unit's code. */
+  readonly insunits?: number | null;
+  /** Layers beyond "0", with their state; every layer an entity names should be listed. */
+  readonly layers?: readonly DxfLayer[];
+  readonly blocks?: readonly DxfBlock[];
+  /** Entities of model space; entities without a layer go on "0". */
+  readonly entities: readonly DxfEntity[];
 }
 
 /**
- * ASCII DXF (AutoCAD 2000, AC1015) holding the given entities on one layer: HEADER with
- * `$ACADVER`, `$INSUNITS` and `$MEASUREMENT`, TABLES with the CONTINUOUS line type and the
- * layers, ENTITIES, EOF. Numbers are written in the shortest form that reads back exactly.
+ * ASCII DXF (AutoCAD 2000, AC1015): HEADER with `$ACADVER`, `$INSUNITS`, `$MEASUREMENT` and
+ * `$HANDSEED`; TABLES with the CONTINUOUS line type, the layers and (when there are blocks) their
+ * BLOCK_RECORD entries; BLOCKS; ENTITIES; EOF. Numbers are written in the shortest form that reads
+ * back exactly.
  */
-export function writeDxfEntities(entities: readonly DxfEntity[], opts: Omit<WriteDxfOptions, 'style'>): string {
-  const layer = opts.layer ?? '0';
-  checkLayerName(layer);
-  const t = new Tags();
-  const body = new Tags();
-  for (const e of entities) writeEntity(body, e, layer);
+export function writeDxfDrawing(d: DxfDrawing): string {
+  const layers: DxfLayer[] = [{ name: '0' }, ...(d.layers ?? []).filter((l) => l.name !== '0')];
+  layers.forEach((l) => checkName('layer', l.name));
+  const blocks = d.blocks ?? [];
+  blocks.forEach((b) => checkName('block', b.name));
+  const body = new TagWriter();
+  if (blocks.length) {
+    body.tag(0, 'SECTION').tag(2, 'BLOCKS');
+    for (const b of blocks) {
+      body.tag(0, 'BLOCK').nextHandle().tag(100, 'AcDbEntity').tag(8, '0').tag(100, 'AcDbBlockBegin');
+      body.tag(2, b.name).tag(70, 0).point(10, b.base ?? { x: 0, y: 0 }).tag(3, b.name).tag(1, '');
+      for (const e of b.entities) writeEntity(body, e, '0');
+      body.tag(0, 'ENDBLK').nextHandle().tag(100, 'AcDbEntity').tag(8, '0').tag(100, 'AcDbBlockEnd');
+    }
+    body.tag(0, 'ENDSEC');
+  }
+  body.tag(0, 'SECTION').tag(2, 'ENTITIES');
+  for (const e of d.entities) writeEntity(body, e, '0');
 
+  const t = new TagWriter();
   t.tag(0, 'SECTION').tag(2, 'HEADER');
   t.tag(9, '$ACADVER').tag(1, 'AC1015');
-  t.tag(9, '$INSUNITS').tag(70, INSUNITS[opts.unit]);
-  t.tag(9, '$MEASUREMENT').tag(70, opts.unit === 'in' || opts.unit === 'ft' ? 0 : 1);
+  const insunits = d.insunits === undefined ? INSUNITS[d.unit] : d.insunits;
+  if (insunits !== null) t.tag(9, '$INSUNITS').tag(70, insunits);
+  t.tag(9, '$MEASUREMENT').tag(70, d.unit === 'in' || d.unit === 'ft' ? 0 : 1);
   t.tag(9, '$HANDSEED').tag(5, body.handseed);
   t.tag(0, 'ENDSEC');
 
@@ -232,20 +163,31 @@ export function writeDxfEntities(entities: readonly DxfEntity[], opts: Omit<Writ
   t.tag(0, 'LTYPE').tag(5, '14').tag(100, 'AcDbSymbolTableRecord').tag(100, 'AcDbLinetypeTableRecord');
   t.tag(2, 'CONTINUOUS').tag(70, 0).tag(3, 'Solid line').tag(72, 65).tag(73, 0).tag(40, 0);
   t.tag(0, 'ENDTAB');
-  const layers = layer === '0' ? ['0'] : ['0', layer];
   t.tag(0, 'TABLE').tag(2, 'LAYER').tag(5, '2').tag(100, 'AcDbSymbolTable').tag(70, layers.length);
-  layers.forEach((name, i) => {
+  layers.forEach((l, i) => {
     t.tag(0, 'LAYER').tag(5, (0x10 + i).toString(16).toUpperCase());
     t.tag(100, 'AcDbSymbolTableRecord').tag(100, 'AcDbLayerTableRecord');
-    t.tag(2, name).tag(70, 0).tag(62, 7).tag(6, 'CONTINUOUS');
+    // Frozen: flag 70 bit 1; off: a negative colour number.
+    t.tag(2, l.name).tag(70, l.frozen ? 1 : 0).tag(62, l.off ? -7 : 7).tag(6, 'CONTINUOUS');
   });
   t.tag(0, 'ENDTAB');
+  if (blocks.length) {
+    t.tag(0, 'TABLE').tag(2, 'BLOCK_RECORD').tag(5, '1').tag(100, 'AcDbSymbolTable').tag(70, blocks.length);
+    blocks.forEach((b, i) => {
+      t.tag(0, 'BLOCK_RECORD').tag(5, (0x18 + i).toString(16).toUpperCase());
+      t.tag(100, 'AcDbSymbolTableRecord').tag(100, 'AcDbBlockTableRecord').tag(2, b.name);
+    });
+    t.tag(0, 'ENDTAB');
+  }
   t.tag(0, 'ENDSEC');
+  return t.text() + body.text() + new TagWriter().tag(0, 'ENDSEC').tag(0, 'EOF').text();
+}
 
-  t.tag(0, 'SECTION').tag(2, 'ENTITIES');
-  const head = t.text();
-  const tail = new Tags().tag(0, 'ENDSEC').tag(0, 'EOF').text();
-  return head + (entities.length > 0 ? body.text() : '') + tail;
+/** ASCII DXF holding the given entities on one layer (see `writeDxfDrawing`). */
+export function writeDxfEntities(entities: readonly DxfEntity[], opts: Omit<WriteDxfOptions, 'style'>): string {
+  const layer = opts.layer ?? '0';
+  checkName('layer', layer);
+  return writeDxfDrawing({ unit: opts.unit, layers: [{ name: layer }], entities: entities.map((e) => ({ ...e, layer: e.layer ?? layer })) });
 }
 
 /** ASCII DXF of a region: see `regionEntities` for the drawing style, `writeDxfEntities` for the file. */
