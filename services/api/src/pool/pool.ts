@@ -9,6 +9,8 @@ export interface PoolOptions {
   readonly memoryMb: number;
   /** Drawings allowed to wait for a thread; past that `run` refuses with PoolFullError. */
   readonly maxWaiting: number;
+  /** Module the threads run (default ./worker.mjs); tests swap in failing ones. */
+  readonly filename?: string;
 }
 
 export class PoolFullError extends Error {
@@ -39,7 +41,7 @@ export class ComputePool {
 
   constructor(private readonly opts: PoolOptions) {
     this.piscina = new Piscina({
-      filename: new URL('./worker.mjs', import.meta.url).href,
+      filename: opts.filename ?? new URL('./worker.mjs', import.meta.url).href,
       minThreads: opts.threads,
       maxThreads: opts.threads,
       idleTimeout: Number.MAX_SAFE_INTEGER,
