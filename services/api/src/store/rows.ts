@@ -36,6 +36,7 @@ export function itemOf(r: Row): ItemRecord {
     status: r.status as ItemStatus,
     attempts: Number(r.attempts),
     error: r.error_code == null ? null : { code: String(r.error_code), message: String(r.error_message) },
+    resultKey: r.result_key == null ? null : String(r.result_key),
     result: r.r_key == null ? null : resultOf({ profile: r.r_profile, error_code: r.r_error_code, error_message: r.r_error_message }),
   };
 }

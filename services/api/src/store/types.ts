@@ -67,7 +67,8 @@ export interface ItemRecord {
   readonly status: ItemStatus;
   readonly attempts: number;
   readonly error: ItemError | null;
-  /** The stored result of a done item. */
+  /** The key and stored result of a done item. */
+  readonly resultKey: string | null;
   readonly result: StoredResult | null;
 }
 
