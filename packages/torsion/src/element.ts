@@ -9,6 +9,8 @@
 export interface Rule {
   readonly points: number;
   readonly w: Float64Array;
+  /** Barycentric coordinates of the points, three per point. */
+  readonly lam: Float64Array;
   /** Shape values N[6q + k], derivatives dξ[6q + k], dη[6q + k]. */
   readonly N: Float64Array;
   readonly dxi: Float64Array;
@@ -18,6 +20,7 @@ export interface Rule {
 function makeRule(pts: readonly [number, number, number][]): Rule {
   const n = pts.length;
   const w = new Float64Array(n);
+  const lam = new Float64Array(3 * n);
   const N = new Float64Array(6 * n);
   const dxi = new Float64Array(6 * n);
   const deta = new Float64Array(6 * n);
@@ -26,11 +29,12 @@ function makeRule(pts: readonly [number, number, number][]): Rule {
     const l1 = xi;
     const l2 = eta;
     w[q] = weight / 2;
+    lam.set([l0, l1, l2], 3 * q);
     N.set([l0 * (2 * l0 - 1), l1 * (2 * l1 - 1), l2 * (2 * l2 - 1), 4 * l0 * l1, 4 * l1 * l2, 4 * l2 * l0], 6 * q);
     dxi.set([-(4 * l0 - 1), 4 * l1 - 1, 0, 4 * (l0 - l1), 4 * l2, -4 * l2], 6 * q);
     deta.set([-(4 * l0 - 1), 0, 4 * l2 - 1, -4 * l1, 4 * l1, 4 * (l0 - l2)], 6 * q);
   });
-  return { points: n, w, N, dxi, deta };
+  return { points: n, w, lam, N, dxi, deta };
 }
 
 const orbit = (a: number, w: number): [number, number, number][] => [
@@ -133,4 +137,53 @@ export class ElementAt {
     for (let k = 0; k < 6; k++) s += N[6 * q + k]! * u[k]!;
     return s;
   }
+}
+
+/** ∂N_i/∂λ_a at barycentrics l (the six functions as polynomials in three independent λ). */
+function dNdLambda(i: number, a: number, l: ArrayLike<number>): number {
+  if (i < 3) return a === i ? 4 * l[i]! - 1 : 0;
+  const k = i - 3;
+  const k1 = (k + 1) % 3;
+  return a === k ? 4 * l[k1]! : a === k1 ? 4 * l[k]! : 0;
+}
+
+/** (1/A)∫ f dA over a straight triangle, f given at the points of a rule exact for it. */
+function mean(rule: Rule, f: (l: Float64Array, q: number) => number): number {
+  let s = 0;
+  for (let q = 0; q < rule.points; q++) s += 2 * rule.w[q]! * f(rule.lam.subarray(3 * q, 3 * q + 3), q);
+  return s;
+}
+
+/**
+ * Closed forms of the straight-sided six-node triangle (edge nodes at the midpoints, constant
+ * Jacobian), per unit area, computed once from the rules above (exact for these polynomial
+ * degrees). With ∇λa = (ba, ca)/2A, ba = y(a+1) − y(a+2), ca = x(a+2) − x(a+1), and Σa ∇λa = 0,
+ *   K = Σ_{pairs p = (a, a+1)} g_p·STIFF[p],  g_p = A·∇λa·∇λ(a+1) = (ba·b(a+1) + ca·c(a+1))/4A
+ * (the cotangent form of the Laplacian: g_p = −½·cot of the angle opposite edge p), with
+ * STIFF[p] = Q^{ab} + Q^{ba} − Q^{aa} − Q^{bb}, Q^{ab}_ij = (1/A)∫ ∂Ni/∂λa·∂Nj/∂λb dA. Load and
+ * moments: LOAD[i][a][c] = (1/A)∫ ∂Ni/∂λa·λc dA; FIRST[i][c] = (1/A)∫ Ni·λc dA;
+ * MASS[i][j] = (1/A)∫ Ni·Nj dA. Evaluating these costs a few dozen operations per element, where
+ * quadrature costs several hundred.
+ */
+export const STIFF: readonly Float64Array[] = [0, 1, 2].map((p) => {
+  const a = p;
+  const b = (p + 1) % 3;
+  const S = new Float64Array(36);
+  for (let i = 0; i < 6; i++)
+    for (let j = 0; j < 6; j++) {
+      const Q = (u: number, v: number) => mean(RULE3, (l) => dNdLambda(i, u, l) * dNdLambda(j, v, l));
+      S[6 * i + j] = Q(a, b) + Q(b, a) - Q(a, a) - Q(b, b);
+    }
+  return S;
+});
+
+export const LOAD = new Float64Array(54);
+export const FIRST = new Float64Array(18);
+export const MASS = new Float64Array(36);
+for (let i = 0; i < 6; i++) {
+  for (let c = 0; c < 3; c++) {
+    FIRST[3 * i + c] = mean(RULE6, (l, q) => RULE6.N[6 * q + i]! * l[c]!);
+    for (let a = 0; a < 3; a++) LOAD[9 * i + 3 * a + c] = mean(RULE3, (l) => dNdLambda(i, a, l) * l[c]!);
+  }
+  for (let j = 0; j < 6; j++) MASS[6 * i + j] = mean(RULE6, (_, q) => RULE6.N[6 * q + i]! * RULE6.N[6 * q + j]!);
 }

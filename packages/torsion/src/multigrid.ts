@@ -198,6 +198,8 @@ export function holdRows(K: Csr, held: Uint8Array): void {
 export interface GridLevel {
   readonly K: Csr;
   readonly diag: Float64Array;
+  /** Position of each row's diagonal entry (columns ascend: the lower part lies before it). */
+  readonly dpos: Int32Array;
   readonly held: Uint8Array;
   /** Prolongation from the next coarser level. */
   readonly P: Csr;
@@ -224,9 +226,14 @@ export class Multigrid {
 
   push(K: Csr, held: Uint8Array, P: Csr): void {
     const diag = new Float64Array(K.n);
-    for (let i = 0; i < K.n; i++)
-      for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) if (K.col[k] === i) diag[i] = K.val[k]!;
-    this.levels.push({ K, diag, held, P });
+    const dpos = new Int32Array(K.n);
+    for (let i = 0; i < K.n; i++) {
+      let k = K.rowPtr[i]!;
+      while (K.col[k] !== i) k++;
+      dpos[i] = k;
+      diag[i] = K.val[k]!;
+    }
+    this.levels.push({ K, diag, dpos, held, P });
     const nc = this.levels.length > 1 ? this.levels[this.levels.length - 2]!.K.n : this.coarseSize;
     this.scratch.push([new Float64Array(K.n), new Float64Array(nc), new Float64Array(nc)]);
   }
@@ -242,19 +249,21 @@ export class Multigrid {
       for (let i = 0; i < x.length; i++) if (this.coarseHeld[i]) x[i] = 0;
       return;
     }
-    const { K, diag, P } = this.levels[l]!;
+    const { K, diag, dpos, P } = this.levels[l]!;
     const { rowPtr, col, val } = K;
     const n = K.n;
     const [res, bc, xc] = this.scratch[l]!;
-    x.fill(0);
+    // Forward sweep from x = 0: row i sees only the new values before it. Its residual is then
+    // b_i − Σ_{j<i} K_ij·x_j − K_ii·x_i − Σ_{j>i} K_ij·x_j = −Σ_{j>i} K_ij·x_j, so sweep and
+    // residual together read each row once.
     for (let i = 0; i < n; i++) {
       let s = b[i]!;
-      for (let k = rowPtr[i]!; k < rowPtr[i + 1]!; k++) s -= val[k]! * x[col[k]!]!;
-      x[i]! += s / diag[i]!;
+      for (let k = rowPtr[i]!; k < dpos[i]!; k++) s -= val[k]! * x[col[k]!]!;
+      x[i] = s / diag[i]!;
     }
     for (let i = 0; i < n; i++) {
-      let s = b[i]!;
-      for (let k = rowPtr[i]!; k < rowPtr[i + 1]!; k++) s -= val[k]! * x[col[k]!]!;
+      let s = 0;
+      for (let k = dpos[i]! + 1; k < rowPtr[i + 1]!; k++) s -= val[k]! * x[col[k]!]!;
       res![i] = s;
     }
     // bc = Pᵀ·res, with the coarse level's held nodes left out.

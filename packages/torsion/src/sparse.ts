@@ -54,6 +54,69 @@ export function patternOf(el: ArrayLike<number>, per: number, n: number): Csr {
   return { n, rowPtr, col, val: new Float64Array(p) };
 }
 
+/**
+ * Assembled finite-element matrix from element matrices (`ke`: per × per values, row-major, for
+ * each element of `el`), row by row: the elements around a node add their rows into a dense
+ * scratch row, whose columns are then written out in ascending order. Pattern and values come
+ * out of one sweep, with no search for an entry's position.
+ */
+export function assembleRows(el: Uint32Array, per: number, ke: Float64Array, n: number): Csr {
+  // Slots of each node's (element, local index) pairs, by counting sort.
+  const start = new Int32Array(n + 1);
+  for (let k = 0; k < el.length; k++) start[el[k]! + 1]!++;
+  for (let i = 0; i < n; i++) start[i + 1]! += start[i]!;
+  const slot = new Int32Array(el.length);
+  const fill = start.slice(0, n);
+  for (let k = 0; k < el.length; k++) slot[fill[el[k]!]!++] = k;
+  // Columns of each row: counted first, so the arrays are allocated once at their size.
+  const mark = new Int32Array(n).fill(-1);
+  const rowPtr = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    let c = 0;
+    for (let s = start[i]!; s < start[i + 1]!; s++) {
+      const e = (slot[s]! / per) | 0;
+      for (let j = 0; j < per; j++) {
+        const col = el[e * per + j]!;
+        if (mark[col] !== i) {
+          mark[col] = i;
+          c++;
+        }
+      }
+    }
+    rowPtr[i + 1] = rowPtr[i]! + c;
+  }
+  const col = new Int32Array(rowPtr[n]!);
+  const val = new Float64Array(rowPtr[n]!);
+  const acc = new Float64Array(n);
+  mark.fill(-1);
+  for (let i = 0; i < n; i++) {
+    const r0 = rowPtr[i]!;
+    let p = r0;
+    for (let s = start[i]!; s < start[i + 1]!; s++) {
+      const k = slot[s]!;
+      const e = (k / per) | 0;
+      const row = (k - e * per) * per + e * per * per;
+      for (let j = 0; j < per; j++) {
+        const c = el[e * per + j]!;
+        if (mark[c] !== i) {
+          mark[c] = i;
+          acc[c] = 0;
+          // Insertion into the sorted row (rows are short).
+          let q = p++;
+          while (q > r0 && col[q - 1]! > c) {
+            col[q] = col[q - 1]!;
+            q--;
+          }
+          col[q] = c;
+        }
+        acc[c]! += ke[row + j]!;
+      }
+    }
+    for (let q = r0; q < p; q++) val[q] = acc[col[q]!]!;
+  }
+  return { n, rowPtr, col, val };
+}
+
 /** Position of entry (i, j) in the matrix's arrays (−1 if outside the pattern). */
 export function entry(A: Csr, i: number, j: number): number {
   let lo = A.rowPtr[i]!;

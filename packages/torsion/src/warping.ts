@@ -1,12 +1,12 @@
-import { ElementAt, RULE3, RULE6 } from './element';
+import { ElementAt, FIRST, LOAD, MASS, RULE6, STIFF } from './element';
 import { TorsionError } from './errors';
 import type { QuadMesh } from './levels';
 import { holdRows } from './multigrid';
 import {
   applyFactor,
+  assembleRows,
   conjugateGradient,
   incompleteCholesky,
-  patternOf,
   type Csr,
   type Preconditioner,
 } from './sparse';
@@ -97,6 +97,10 @@ function piecesOf(K: Csr): { component: Int32Array; components: number } {
   return { component, components };
 }
 
+/**
+ * Element matrices and loads, then the assembled system. Straight-sided elements (nearly all) use
+ * the closed forms of `STIFF` and `LOAD`; elements with a curved side, the six-point rule.
+ */
 export function assemble(mesh: QuadMesh): Assembly {
   const { x, y, el, curved } = mesh;
   const nn = x.length;
@@ -104,78 +108,102 @@ export function assemble(mesh: QuadMesh): Assembly {
   const E = new ElementAt();
   const ex = new Float64Array(6);
   const ey = new Float64Array(6);
-  const load = (e: number, dx: number, dy: number) => {
-    for (let k = 0; k < 6; k++) {
-      const n = el[6 * e + k]!;
-      ex[k] = x[n]! - dx;
-      ey[k] = y[n]! - dy;
-    }
-  };
 
-  // Area moments of the mesh (exact for its straight and quadratic sides), about the frame origin.
+  // Area and centroid of the mesh (exact for its straight and quadratic sides).
   let A = 0;
   let Sx = 0;
   let Sy = 0;
   for (let e = 0; e < ne; e++) {
-    load(e, 0, 0);
-    if (!(curved[e] ? E.evaluate(ex, ey, RULE6) : E.evaluateStraight(ex, ey, RULE3)))
-      throw new TorsionError('MESH_FAILED', `element ${e} is inverted`);
-    for (let q = 0; q < E.rule.points; q++) {
-      A += E.wd[q]!;
-      Sx += E.wd[q]! * E.px[q]!;
-      Sy += E.wd[q]! * E.py[q]!;
+    if (curved[e]) {
+      gather(mesh, e, 0, 0, ex, ey);
+      if (!E.evaluate(ex, ey, RULE6)) throw new TorsionError('MESH_FAILED', `element ${e} is inverted`);
+      for (let q = 0; q < 6; q++) {
+        A += E.wd[q]!;
+        Sx += E.wd[q]! * E.px[q]!;
+        Sy += E.wd[q]! * E.py[q]!;
+      }
+      continue;
     }
+    const a = el[6 * e]!;
+    const b = el[6 * e + 1]!;
+    const c = el[6 * e + 2]!;
+    const d = (x[b]! - x[a]!) * (y[c]! - y[a]!) - (x[c]! - x[a]!) * (y[b]! - y[a]!);
+    if (!(d > 0)) throw new TorsionError('MESH_FAILED', `element ${e} is inverted`);
+    A += d / 2;
+    Sx += (d / 6) * (x[a]! + x[b]! + x[c]!);
+    Sy += (d / 6) * (y[a]! + y[b]! + y[c]!);
   }
   const cx = Sx / A;
   const cy = Sy / A;
 
-  // Mesh levels number nodes coarse-first and the coarsest mesh is spatially ordered: keep that order.
-  const K: Csr = patternOf(el, 6, nn);
-  const { component, components } = piecesOf(K);
+  // Element stiffness (36 values each), load and second moments, coordinates about the centroid.
+  const ke = new Float64Array(36 * ne);
   const f = new Float64Array(nn);
   let Ix = 0;
   let Iy = 0;
   let Ixy = 0;
-  const ke = new Float64Array(36);
-  const fe = new Float64Array(6);
-  const pos = new Int32Array(36);
+  // Module bindings read once: in the loops they would be live-binding lookups.
+  const [S0, S1, S2] = STIFF as [Float64Array, Float64Array, Float64Array];
+  const Lo = LOAD;
   for (let e = 0; e < ne; e++) {
-    load(e, cx, cy);
-    if (curved[e]) E.evaluate(ex, ey, RULE6);
-    else E.evaluateStraight(ex, ey, RULE3);
-    ke.fill(0);
-    fe.fill(0);
-    for (let q = 0; q < E.rule.points; q++) {
-      const w = E.wd[q]!;
-      const px = E.px[q]!;
-      const py = E.py[q]!;
-      Ix += w * py * py;
-      Iy += w * px * px;
-      Ixy += w * px * py;
-      const o = 6 * q;
-      for (let i = 0; i < 6; i++) {
-        const gxi = E.gx[o + i]!;
-        const gyi = E.gy[o + i]!;
-        fe[i]! += w * (gxi * py - gyi * px);
-        for (let j = i; j < 6; j++) ke[6 * i + j]! += w * (gxi * E.gx[o + j]! + gyi * E.gy[o + j]!);
+    const o = 36 * e;
+    const n = 6 * e;
+    if (curved[e]) {
+      gather(mesh, e, cx, cy, ex, ey);
+      E.evaluate(ex, ey, RULE6);
+      for (let q = 0; q < 6; q++) {
+        const w = E.wd[q]!;
+        const px = E.px[q]!;
+        const py = E.py[q]!;
+        Ix += w * py * py;
+        Iy += w * px * px;
+        Ixy += w * px * py;
+        for (let i = 0; i < 6; i++) {
+          const gxi = E.gx[6 * q + i]!;
+          const gyi = E.gy[6 * q + i]!;
+          f[el[n + i]!]! += w * (gxi * py - gyi * px);
+          for (let j = 0; j < 6; j++) ke[o + 6 * i + j]! += w * (gxi * E.gx[6 * q + j]! + gyi * E.gy[6 * q + j]!);
+        }
       }
+      continue;
     }
-    // Scatter: positions of the element's 36 couplings in the sorted rows.
+    const X0 = x[el[n]!]! - cx;
+    const X1 = x[el[n + 1]!]! - cx;
+    const X2 = x[el[n + 2]!]! - cx;
+    const Y0 = y[el[n]!]! - cy;
+    const Y1 = y[el[n + 1]!]! - cy;
+    const Y2 = y[el[n + 2]!]! - cy;
+    const b0 = Y1 - Y2;
+    const b1 = Y2 - Y0;
+    const b2 = Y0 - Y1;
+    const c0 = X2 - X1;
+    const c1 = X0 - X2;
+    const c2 = X1 - X0;
+    const d = b0 * c1 - b1 * c0; // twice the area
+    const g0 = (b0 * b1 + c0 * c1) / (2 * d);
+    const g1 = (b1 * b2 + c1 * c2) / (2 * d);
+    const g2 = (b2 * b0 + c2 * c0) / (2 * d);
+    for (let k = 0; k < 36; k++) ke[o + k] = g0 * S0[k]! + g1 * S1[k]! + g2 * S2[k]!;
+    // f_i = ∫(y·∂Ni/∂x − x·∂Ni/∂y) dA = ½ Σ_ac (b_a·y_c − c_a·x_c)·LOAD[i][a][c].
+    const bs = [b0, b1, b2];
+    const cs = [c0, c1, c2];
+    const xs = [X0, X1, X2];
+    const ys = [Y0, Y1, Y2];
     for (let i = 0; i < 6; i++) {
-      const r = el[6 * e + i]!;
-      const r0 = K.rowPtr[r]!;
-      const r1 = K.rowPtr[r + 1]!;
-      for (let j = 0; j < 6; j++) {
-        const c = el[6 * e + j]!;
-        let p = r0;
-        while (p < r1 && K.col[p] !== c) p++;
-        pos[6 * i + j] = p;
-      }
-      f[r]! += fe[i]!;
+      let s = 0;
+      for (let a = 0; a < 3; a++)
+        for (let c = 0; c < 3; c++) s += (bs[a]! * ys[c]! - cs[a]! * xs[c]!) * Lo[9 * i + 3 * a + c]!;
+      f[el[n + i]!]! += s / 2;
     }
-    for (let i = 0; i < 6; i++)
-      for (let j = 0; j < 6; j++) K.val[pos[6 * i + j]!]! += i <= j ? ke[6 * i + j]! : ke[6 * j + i]!;
+    // ∫x² = (A/6)(Σ x_a² + Σ_{a<b} x_a·x_b), ∫xy = (A/12)(Σ x_a·y_a + Σx_a·Σy_a).
+    Iy += (d / 12) * (X0 * X0 + X1 * X1 + X2 * X2 + X0 * X1 + X1 * X2 + X2 * X0);
+    Ix += (d / 12) * (Y0 * Y0 + Y1 * Y1 + Y2 * Y2 + Y0 * Y1 + Y1 * Y2 + Y2 * Y0);
+    Ixy += (d / 24) * (X0 * Y0 + X1 * Y1 + X2 * Y2 + (X0 + X1 + X2) * (Y0 + Y1 + Y2));
   }
+
+  // Mesh levels number nodes coarse-first and the coarsest mesh is spatially ordered: keep that order.
+  const K = assembleRows(el, 6, ke, nn);
+  const { component, components } = piecesOf(K);
 
   // One node per connected piece held at zero: its smallest node, a corner of the coarsest mesh,
   // so every level holds the same point.
@@ -189,6 +217,15 @@ export function assemble(mesh: QuadMesh): Assembly {
     }
   holdRows(K, held);
   return { K, f, held, component, components, A, cx, cy, Ix, Iy, Ixy };
+}
+
+/** Node coordinates of element e, less (dx, dy). */
+function gather(mesh: QuadMesh, e: number, dx: number, dy: number, ex: Float64Array, ey: Float64Array): void {
+  for (let k = 0; k < 6; k++) {
+    const n = mesh.el[6 * e + k]!;
+    ex[k] = mesh.x[n]! - dx;
+    ey[k] = mesh.y[n]! - dy;
+  }
 }
 
 /** Solves the assembled system from a starting guess (shifted so held nodes start at zero). */
@@ -210,7 +247,12 @@ export function solveAssembled(
   return { u, iterations: rep.iterations };
 }
 
-/** J, shear centre and Cw from the solved warping function of one level. */
+/**
+ * J, shear centre and Cw from the solved warping function of one level. The integrals of ω·x,
+ * ω·y and ω² use the closed forms `FIRST`, `MASS` on straight-sided elements; Cw then
+ * follows from them without a second field: with ω₀ = ω − y₀·x + x₀·y,
+ *   ∫ω₀² = ∫ω² − 2y₀·Iωx + 2x₀·Iωy + y₀²·Iy − 2x₀y₀·Ixy + x₀²·Ix.
+ */
 export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iterations: number, shift = 0): LevelResult {
   const { x, y, el, curved } = mesh;
   const nn = x.length;
@@ -219,13 +261,10 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   const E = new ElementAt();
   const ex = new Float64Array(6);
   const ey = new Float64Array(6);
-  const load = (e: number, dx: number, dy: number) => {
-    for (let k = 0; k < 6; k++) {
-      const n = el[6 * e + k]!;
-      ex[k] = x[n]! - dx;
-      ey[k] = y[n]! - dy;
-    }
-  };
+  // Module bindings read once: in the loops they would be live-binding lookups.
+  const Fi = FIRST;
+  const Ma = MASS;
+  const N6 = RULE6.N;
   // J from the energy functional (stationary: solver error enters squared). Held nodes are zero,
   // so the held rows change neither fᵀu nor uᵀKu.
   let fu = 0;
@@ -238,75 +277,79 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   }
   const J = Ix + Iy - (2 * fu - uKu);
 
-  const omega = u.slice();
-
   // Mean zero over each connected piece.
   const pieceA = new Float64Array(components);
   const pieceW = new Float64Array(components);
-  const ue = new Float64Array(6);
-  const gather = (e: number, v: Float64Array) => {
-    for (let k = 0; k < 6; k++) ue[k] = v[el[6 * e + k]!]!;
-  };
   for (let e = 0; e < ne; e++) {
-    load(e, cx, cy);
-    if (curved[e]) E.evaluate(ex, ey, RULE6);
-    else E.evaluateStraight(ex, ey, RULE6);
-    gather(e, omega);
-    const c = component[el[6 * e]!]!;
-    for (let q = 0; q < 6; q++) {
-      pieceA[c]! += E.wd[q]!;
-      pieceW[c]! += E.wd[q]! * E.value(ue, q);
+    const n = 6 * e;
+    const c = component[el[n]!]!;
+    if (curved[e]) {
+      gather(mesh, e, cx, cy, ex, ey);
+      E.evaluate(ex, ey, RULE6);
+      for (let q = 0; q < 6; q++) {
+        let v = 0;
+        for (let k = 0; k < 6; k++) v += N6[6 * q + k]! * u[el[n + k]!]!;
+        pieceA[c]! += E.wd[q]!;
+        pieceW[c]! += E.wd[q]! * v;
+      }
+      continue;
     }
+    const a = el[n]!;
+    const b = el[n + 1]!;
+    const d = el[n + 2]!;
+    const area = ((x[b]! - x[a]!) * (y[d]! - y[a]!) - (x[d]! - x[a]!) * (y[b]! - y[a]!)) / 2;
+    pieceA[c]! += area;
+    // ∫Ni dA is A/3 for the edge functions, 0 for the corner ones.
+    pieceW[c]! += (area * (u[el[n + 3]!]! + u[el[n + 4]!]! + u[el[n + 5]!]!)) / 3;
   }
-  for (let i = 0; i < nn; i++) omega[i]! -= pieceW[component[i]!]! / pieceA[component[i]!]!;
+  const omega = new Float64Array(nn);
+  for (let i = 0; i < nn; i++) omega[i] = u[i]! - pieceW[component[i]!]! / pieceA[component[i]!]!;
 
   let Iwx = 0;
   let Iwy = 0;
+  let W2 = 0;
+  const w = new Float64Array(6);
   for (let e = 0; e < ne; e++) {
-    load(e, cx, cy);
-    if (curved[e]) E.evaluate(ex, ey, RULE6);
-    else E.evaluateStraight(ex, ey, RULE6);
-    gather(e, omega);
-    for (let q = 0; q < 6; q++) {
-      const w = E.value(ue, q) * E.wd[q]!;
-      Iwx += w * E.px[q]!;
-      Iwy += w * E.py[q]!;
+    const n = 6 * e;
+    for (let k = 0; k < 6; k++) w[k] = omega[el[n + k]!]!;
+    if (curved[e]) {
+      gather(mesh, e, cx, cy, ex, ey);
+      E.evaluate(ex, ey, RULE6);
+      for (let q = 0; q < 6; q++) {
+        let v = 0;
+        for (let k = 0; k < 6; k++) v += N6[6 * q + k]! * w[k]!;
+        Iwx += E.wd[q]! * v * E.px[q]!;
+        Iwy += E.wd[q]! * v * E.py[q]!;
+        W2 += E.wd[q]! * v * v;
+      }
+      continue;
     }
+    const X0 = x[el[n]!]! - cx;
+    const X1 = x[el[n + 1]!]! - cx;
+    const X2 = x[el[n + 2]!]! - cx;
+    const Y0 = y[el[n]!]! - cy;
+    const Y1 = y[el[n + 1]!]! - cy;
+    const Y2 = y[el[n + 2]!]! - cy;
+    const area = ((X1 - X0) * (Y2 - Y0) - (X2 - X0) * (Y1 - Y0)) / 2;
+    let sx = 0;
+    let sy = 0;
+    let s2 = 0;
+    for (let i = 0; i < 6; i++) {
+      const wi = w[i]!;
+      sx += wi * (Fi[3 * i]! * X0 + Fi[3 * i + 1]! * X1 + Fi[3 * i + 2]! * X2);
+      sy += wi * (Fi[3 * i]! * Y0 + Fi[3 * i + 1]! * Y1 + Fi[3 * i + 2]! * Y2);
+      let m = 0;
+      for (let j = 0; j < 6; j++) m += Ma[6 * i + j]! * w[j]!;
+      s2 += wi * m;
+    }
+    Iwx += area * sx;
+    Iwy += area * sy;
+    W2 += area * s2;
   }
   const det = Ix * Iy - Ixy * Ixy;
   const x0 = (Ixy * Iwx - Iy * Iwy) / det;
   const y0 = (Ix * Iwx - Ixy * Iwy) / det;
-
-  // Warping about the shear centre, mean removed, then its square integrated.
-  const w0 = new Float64Array(nn);
-  for (let i = 0; i < nn; i++) w0[i] = omega[i]! - y0 * (x[i]! - cx) + x0 * (y[i]! - cy);
-  let Q = 0;
-  let W2 = 0;
-  for (let e = 0; e < ne; e++) {
-    load(e, cx, cy);
-    if (curved[e]) E.evaluate(ex, ey, RULE6);
-    else E.evaluateStraight(ex, ey, RULE6);
-    gather(e, w0);
-    for (let q = 0; q < 6; q++) {
-      const v = E.value(ue, q);
-      Q += E.wd[q]! * v;
-      W2 += E.wd[q]! * v * v;
-    }
-  }
-  const Cw = W2 - (Q * Q) / A;
-  return {
-    J,
-    Cw,
-    xs: cx + x0,
-    ys: cy + y0,
-    A,
-    cx,
-    cy,
-    Ix,
-    Iy,
-    Ixy,
-    omega,
-    iterations,
-    shift,
-  };
+  // Warping about the shear centre has zero mean already (each piece's ω does, and ∫x = ∫y = 0).
+  const Cw = W2 - 2 * y0 * Iwx + 2 * x0 * Iwy + y0 * y0 * Iy - 2 * x0 * y0 * Ixy + x0 * x0 * Ix;
+  return { J, Cw, xs: cx + x0, ys: cy + y0, A, cx, cy, Ix, Iy, Ixy, omega, iterations, shift };
 }
