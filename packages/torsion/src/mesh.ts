@@ -136,7 +136,6 @@ class Boundary {
  * excluded: the local wall thickness, so thin walls get `across` elements through them.
  */
 function facingSizes(B: Boundary, p: MeshParams): number {
-  const reach = p.across * p.hmax;
   const subs = [...B.subsegments()];
   // Buckets about two median pieces wide; the search grows ring by ring and stops past the best.
   const lens = subs.map((v) => B.length(v)).sort((a, b) => a - b);
@@ -173,50 +172,43 @@ function facingSizes(B: Boundary, p: MeshParams): number {
     const my = ay + dy / 2;
     const ci = B.curve[v]!;
     const c = B.curves[ci]!;
-    let best = reach;
+    // Only a wall thinner than `across` times the size already asked for changes it: search no farther.
+    let want = B.want[v]!;
+    if (c.arc) want = Math.min(want, c.r * arcStep(c.r, p));
+    let best = p.across * want;
     const ci0 = ix(mx);
     const cj0 = ix(my);
-    const test = (u: number) => {
-      if (stamp[u] === v) return;
-      stamp[u] = v;
-      const cu = B.curve[u]!;
-      if (cu === ci || cu === c.prev || cu === c.next) return;
-      const z = B.next[u]!;
-      const ux = B.x[u]!;
-      const uy = B.y[u]!;
-      const ex = B.x[z]! - ux;
-      const ey = B.y[z]! - uy;
-      const l2 = ex * ex + ey * ey;
-      let s = ((mx - ux) * ex + (my - uy) * ey) / l2;
-      s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const qx = ux + s * ex - mx;
-      const qy = uy + s * ey - my;
-      const d = Math.hypot(qx, qy);
-      if (!(d < best)) return;
-      // Across the solid: q ahead along our inward normal, and we ahead along its inward normal.
-      if (qx * nx + qy * ny < 0.5 * d) return;
-      if (-(qx * -ey + qy * ex) < 0) return;
-      best = d;
-    };
+    // Rings of buckets around the middle, until the ring is farther than the best found.
     for (let ring = 0; ring <= n && (ring - 1) * cell < best; ring++) {
-      const j0 = cj0 - ring;
-      const j1 = cj0 + ring;
-      const scan = (i: number, j: number) => {
-        if (i < 0 || i >= n || j < 0 || j >= n) return;
-        const k = j * n + i;
-        for (let q = count[k]!; q < count[k + 1]!; q++) test(items[q]!);
-      };
-      for (let i = ci0 - ring; i <= ci0 + ring; i++) {
-        scan(i, j0);
-        if (ring > 0) scan(i, j1);
-      }
-      for (let j = j0 + 1; j < j1; j++) {
-        scan(ci0 - ring, j);
-        scan(ci0 + ring, j);
+      for (let j = cj0 - ring; j <= cj0 + ring; j++) {
+        if (j < 0 || j >= n) continue;
+        const step = j === cj0 - ring || j === cj0 + ring ? 1 : 2 * ring;
+        for (let i = ci0 - ring; i <= ci0 + ring; i += step) {
+          if (i < 0 || i >= n) continue;
+          const k = j * n + i;
+          for (let q = count[k]!; q < count[k + 1]!; q++) {
+            const u = items[q]!;
+            if (stamp[u] === v) continue;
+            stamp[u] = v;
+            const cu = B.curve[u]!;
+            if (cu === ci || cu === c.prev || cu === c.next) continue;
+            const z = B.next[u]!;
+            const ux = B.x[u]!;
+            const uy = B.y[u]!;
+            const ex = B.x[z]! - ux;
+            const ey = B.y[z]! - uy;
+            let s = ((mx - ux) * ex + (my - uy) * ey) / (ex * ex + ey * ey);
+            s = s < 0 ? 0 : s > 1 ? 1 : s;
+            const qx = ux + s * ex - mx;
+            const qy = uy + s * ey - my;
+            const d = Math.hypot(qx, qy);
+            // Across the solid: q ahead along our inward normal, and we ahead along its inward normal.
+            if (d < best && qx * nx + qy * ny >= 0.5 * d && qx * -ey + qy * ex <= 0) best = d;
+          }
+        }
       }
     }
-    let want = Math.min(B.want[v]!, best / p.across);
-    if (c.arc) want = Math.min(want, c.r * arcStep(c.r, p));
+    want = Math.min(want, best / p.across);
     B.want[v] = want;
     if (len > want * 1.05) {
       B.split(v, Math.ceil(len / want));
@@ -344,7 +336,6 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     field.source(B.x[v]!, B.y[v]!, p.cornerFactor * B.want[v]!);
   }
   field.spread();
-  const sizeAt = (x: number, y: number) => field.at(x, y);
 
   // Boundary to the size field, by bisection so that pieces grade towards small sizes.
   const floor = 1e-3 * hmin;
@@ -353,7 +344,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     const v = stack.pop()!;
     const w = B.next[v]!;
     const len = B.length(v);
-    const h = Math.min(sizeAt(B.x[v]!, B.y[v]!), sizeAt(B.x[w]!, B.y[w]!), sizeAt((B.x[v]! + B.x[w]!) / 2, (B.y[v]! + B.y[w]!) / 2));
+    const h = Math.min(field.at(B.x[v]!, B.y[v]!), field.at(B.x[w]!, B.y[w]!), field.at((B.x[v]! + B.x[w]!) / 2, (B.y[v]! + B.y[w]!) / 2));
     if (len > 1.05 * h && len > floor) {
       B.split(v, 2);
       stack.push(v, B.next[v]!);
@@ -361,14 +352,27 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
   }
 
   const sinMin = Math.sin((p.minAngle * Math.PI) / 180);
+  // Points taken in a round, bucketed on the size field's grid to test their spacing.
+  const gn = field.n;
+  const bucket = (x: number) => Math.min(gn - 1, Math.max(0, Math.floor((x + 0.51) / field.cell)));
+  const head = new Int32Array(gn * gn);
+  const link: number[] = [];
   let mesh = triangulate(B);
   for (let round = 0; round < 100; round++) {
     const { tri, half, inside } = mesh;
     const nt = tri.length / 3;
     const X = B.x;
     const Y = B.y;
-    const splits = new Set<number>();
-    const subStart = (a: number, b: number) => (B.next[a] === b ? a : b);
+    // Subsegments to split, by start point.
+    const split = new Uint8Array(X.length);
+    const splits: number[] = [];
+    const markSplit = (a: number, b: number) => {
+      const v = B.next[a] === b ? a : b;
+      if (!split[v]) {
+        split[v] = 1;
+        splits.push(v);
+      }
+    };
     // Circumcircles of the inside triangles, and those to improve with their priority.
     const ccx = new Float64Array(nt);
     const ccy = new Float64Array(nt);
@@ -403,38 +407,38 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
         if (!B.isSub(a, b)) continue;
         const q = tri[prev3(e)]!;
         const dot = (X[a]! - X[q]!) * (X[b]! - X[q]!) + (Y[a]! - Y[q]!) * (Y[b]! - Y[q]!);
-        if (dot < 0 && B.next[q] !== a && B.next[b] !== q) splits.add(subStart(a, b));
+        if (dot < 0 && B.next[q] !== a && B.next[b] !== q) markSplit(a, b);
       }
 
       // Smallest angle: opposite the shortest edge; its sine is 2·area over the two other edges.
       let sMin: number;
       let corner: number; // vertex at the smallest angle
+      let o1: number; // the two others
+      let o2: number;
       if (l0 <= l1 && l0 <= l2) {
         sMin = area2 / Math.sqrt(l1 * l2);
         corner = i2;
+        o1 = i0;
+        o2 = i1;
       } else if (l1 <= l2) {
         sMin = area2 / Math.sqrt(l0 * l2);
         corner = i0;
+        o1 = i1;
+        o2 = i2;
       } else {
         sMin = area2 / Math.sqrt(l0 * l1);
         corner = i1;
+        o1 = i0;
+        o2 = i2;
       }
-      const tooBig = R > 0.75 * sizeAt(x0 + (bx + cx) / 3, y0 + (by + cy) / 3);
-      let skinny = sMin < sinMin;
-      if (skinny && !tooBig) {
-        // A sharp input corner cannot be improved: both of its sides are boundary.
-        const others = [i0, i1, i2].filter((v) => v !== corner);
-        if (B.isSub(corner, others[0]!) && B.isSub(corner, others[1]!)) skinny = false;
-      }
+      const tooBig = R > 0.75 * field.at(x0 + (bx + cx) / 3, y0 + (by + cy) / 3);
+      // A sharp input corner cannot be improved: both of its sides are boundary.
+      const skinny = sMin < sinMin && !(B.isSub(corner, o1) && B.isSub(corner, o2));
       if (tooBig || skinny) bad.push(t);
     }
-    // Largest first, each new point's cavity (the triangles whose circumcircle holds it) disjoint
-    // from those taken earlier in the round: the batch then acts as sequential Bowyer–Watson insertion.
-    bad.sort((a, b) => rr[b]! - rr[a]!);
-    const taken = new Uint8Array(nt);
-    const cavity: number[] = [];
-    const inCavity = new Uint8Array(nt);
 
+    // Triangle holding (cx, cy), walking from t0; −1 (and the subsegment crossed marked for
+    // splitting) when the walk leaves the domain.
     const locate = (t0: number, cx: number, cy: number): number => {
       let t = t0;
       for (let step = 0; step < 10000; step++) {
@@ -447,7 +451,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
           // Delaunator's triangles turn clockwise with y up: c lies beyond edge a→b when on its left.
           if (o > 0) {
             if (B.isSub(a, b)) {
-              splits.add(subStart(a, b));
+              markSplit(a, b);
               return -1;
             }
             const u = half[e]!;
@@ -462,13 +466,20 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
       return -1;
     };
 
+    // Largest first. A circumcentre is taken unless a point taken earlier in the round lies
+    // within its triangle's circumcircle: then that triangle still exists when the point goes
+    // in, so the batch is a sequential Bowyer–Watson insertion (whatever the order of the
+    // others) and keeps Ruppert's insertion-radius bound; the whole set is triangulated afresh.
+    bad.sort((a, b) => rr[b]! - rr[a]!);
+    head.fill(-1);
+    link.length = 0;
+    const first = X.length;
     let inserted = 0;
     for (const t of bad) {
-      if (taken[t]) continue;
       const ux = ccx[t]!;
       const uy = ccy[t]!;
       const at = locate(t, ux, uy);
-      if (at < 0 || !inside[at] || taken[at]) continue;
+      if (at < 0 || !inside[at]) continue;
       let encroaches = false;
       for (let k = 0; k < 3; k++) {
         const e = 3 * at + k;
@@ -476,50 +487,40 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
         const b = tri[next3(e)]!;
         if (!B.isSub(a, b)) continue;
         if ((X[a]! - ux) * (X[b]! - ux) + (Y[a]! - uy) * (Y[b]! - uy) <= 0) {
-          splits.add(subStart(a, b));
+          markSplit(a, b);
           encroaches = true;
         }
       }
       if (encroaches) continue;
-      cavity.length = 0;
-      cavity.push(at);
-      inCavity[at] = 1;
-      let clash = false;
-      for (let c = 0; c < cavity.length && !clash; c++) {
-        const u = cavity[c]!;
-        for (let k = 0; k < 3; k++) {
-          const e = 3 * u + k;
-          const o = half[e]!;
-          if (o < 0 || B.isSub(tri[e]!, tri[next3(e)]!)) continue;
-          const v = (o / 3) | 0;
-          if (inCavity[v] || !inside[v]) continue;
-          const dx = ux - ccx[v]!;
-          const dy = uy - ccy[v]!;
-          if (dx * dx + dy * dy >= rr[v]!) continue;
-          if (taken[v]) {
-            clash = true;
-            break;
+      const R = Math.sqrt(rr[t]!);
+      let crowded = false;
+      const i0 = bucket(ux - R);
+      const i1 = bucket(ux + R);
+      const j0 = bucket(uy - R);
+      const j1 = bucket(uy + R);
+      for (let j = j0; j <= j1 && !crowded; j++)
+        for (let i = i0; i <= i1 && !crowded; i++)
+          for (let q = head[j * gn + i]!; q >= 0; q = link[q]!) {
+            const dx = X[first + q]! - ux;
+            const dy = Y[first + q]! - uy;
+            if (dx * dx + dy * dy < rr[t]!) {
+              crowded = true;
+              break;
+            }
           }
-          inCavity[v] = 1;
-          cavity.push(v);
-        }
-      }
-      for (const u of cavity) {
-        inCavity[u] = 0;
-        if (!clash) taken[u] = 1;
-      }
-      if (clash) continue;
-      taken[t] = 1;
+      if (crowded) continue;
+      const cell = bucket(uy) * gn + bucket(ux);
+      link.push(head[cell]!);
+      head[cell] = inserted++;
       B.add(ux, uy);
-      inserted++;
     }
-    let split = 0;
+    let splitCount = 0;
     for (const v of splits)
       if (B.length(v) > floor) {
         B.split(v, 2);
-        split++;
+        splitCount++;
       }
-    if (inserted === 0 && split === 0) break;
+    if (inserted === 0 && splitCount === 0) break;
     mesh = triangulate(B);
   }
 
