@@ -2,6 +2,7 @@ import { flattenSegment } from './flatten';
 import { arcContainsAngle, endPoint, line, startPoint } from './segment';
 import { segmentRange } from './extent';
 import { allLoops } from './region';
+import { overlappingBoxes } from './sweep';
 import type { ArcSegment, LineSegment, Point, Region, Segment } from './types';
 
 /** Points where two segments meet (for overlapping collinear pieces, the ends of the overlap). */
@@ -124,8 +125,8 @@ export interface Crossing {
 /**
  * Places where the region's boundary meets itself other than at the joint of two consecutive
  * segments: crossing or touching loops, a self-intersecting outline, overlapping edges — at most
- * one per pair of loops, up to `limit` of them. A sweep over x-sorted bounding boxes keeps it near
- * n log n for ordinary drawings.
+ * one per pair of loops, up to `limit` of them. A sweep over the segments' bounding boxes keeps it
+ * near n log n for ordinary drawings.
  */
 export function findCrossings(region: Region, tol: number, limit = Infinity): Crossing[] {
   const found: Crossing[] = [];
@@ -140,29 +141,23 @@ export function findCrossings(region: Region, tol: number, limit = Infinity): Cr
       entries.push({ seg, loop: li, index: i, size: expanded.length, xmin, xmax, ymin, ymax });
     });
   });
-  entries.sort((p, q) => p.xmin - q.xmin);
-  const active: Entry[] = [];
-  for (const e of entries) {
-    for (let k = active.length - 1; k >= 0; k--) if (active[k]!.xmax < e.xmin - tol) active.splice(k, 1);
-    for (const f of active) {
-      if (f.ymax < e.ymin - tol || e.ymax < f.ymin - tol) continue;
-      const pts = meet(e.seg, f.seg, tol);
-      if (pts.length === 0) continue;
-      const joints: Point[] = [];
-      if (e.loop === f.loop) {
-        if ((e.index + 1) % e.size === f.index) joints.push(endPoint(e.seg));
-        if ((f.index + 1) % f.size === e.index) joints.push(endPoint(f.seg));
-      }
-      const bad = pts.find((p) => !joints.some((j) => Math.hypot(p.x - j.x, p.y - j.y) <= tol * 4));
-      const key = `${Math.min(e.loop, f.loop)}:${Math.max(e.loop, f.loop)}`;
-      if (bad && !seen.has(key)) {
-        seen.add(key);
-        found.push({ at: bad, loops: [Math.min(e.loop, f.loop), Math.max(e.loop, f.loop)] });
-        if (found.length >= limit) return found;
-      }
+  overlappingBoxes(entries, tol, (i, j) => {
+    const e = entries[i]!;
+    const f = entries[j]!;
+    const pts = meet(e.seg, f.seg, tol);
+    if (pts.length === 0) return false;
+    const joints: Point[] = [];
+    if (e.loop === f.loop) {
+      if ((e.index + 1) % e.size === f.index) joints.push(endPoint(e.seg));
+      if ((f.index + 1) % f.size === e.index) joints.push(endPoint(f.seg));
     }
-    active.push(e);
-  }
+    const bad = pts.find((p) => !joints.some((j) => Math.hypot(p.x - j.x, p.y - j.y) <= tol * 4));
+    const key = `${Math.min(e.loop, f.loop)}:${Math.max(e.loop, f.loop)}`;
+    if (!bad || seen.has(key)) return false;
+    seen.add(key);
+    found.push({ at: bad, loops: [Math.min(e.loop, f.loop), Math.max(e.loop, f.loop)] });
+    return found.length >= limit;
+  });
   return found;
 }
 

@@ -1,4 +1,5 @@
 import { loopBox, type Box } from './extent';
+import { overlappingBoxes } from './sweep';
 import { makeRegion, signedLoopArea } from './region';
 import { GeometryError } from './errors';
 import { flattenSegment } from './flatten';
@@ -132,10 +133,16 @@ export function nestLoops(loops: readonly Loop[]): Region {
     ys: vertexHeights(loop),
   }));
   // Parent candidates of i: larger loops whose box holds i's box and that contain i's sample point.
-  const containers = info.map((a, i) =>
-    info
-      .map((_, j) => j)
-      .filter((j) => j !== i && info[j]!.area > a.area && boxInside(a.box, info[j]!.box) && inside(a.p, info[j]!.loop, info[j]!.ys)),
+  // A box holding another overlaps it: only overlapping pairs are tested (a sweep, not all n² pairs).
+  const containers: number[][] = info.map(() => []);
+  const holds = (j: number, i: number) => info[j]!.area > info[i]!.area && boxInside(info[i]!.box, info[j]!.box) && inside(info[i]!.p, info[j]!.loop, info[j]!.ys);
+  overlappingBoxes(
+    info.map((a) => a.box),
+    0,
+    (i, j) => {
+      if (holds(j, i)) containers[i]!.push(j);
+      else if (holds(i, j)) containers[j]!.push(i);
+    },
   );
   const depth = containers.map((c) => c.length);
   const parts = new Map<number, { outer: Loop; holes: Loop[] }>();
