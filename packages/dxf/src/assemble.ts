@@ -114,12 +114,12 @@ function outlineLoops(leaves: readonly Leaf[], ctx: AssembleContext, warnings: s
   const extent = extentOf(pieces);
   if (pieces.length) checkScale(pieces, extent, ctx.file);
   const tol = ctx.joinTolerance ?? DEFAULT_JOIN_TOLERANCE * extent;
-  const merged = mergeCollinear(pieces, tol, extent);
-  ctx.limits.check();
+  const tick = () => ctx.limits.check();
+  const merged = mergeCollinear(pieces, tol, extent, tick);
   if (merged.folded.length)
     warnings.push(`merged ${merged.folded.length} line(s) overlapping others along the same line: ${merged.folded.slice(0, 3).map(entityLabel).join(', ')}`);
-  const st = stitch(merged.pieces, tol);
-  ctx.limits.check();
+  const st = stitch(merged.pieces, tol, tick);
+  tick();
   if (st.fault) throw stitchError(st.fault, ctx, tol, 'no LINE, ARC, CIRCLE, ELLIPSE, SPLINE, LWPOLYLINE, POLYLINE or HATCH in model space');
   if (st.duplicates.length)
     warnings.push(`removed ${st.duplicates.length} duplicate segment(s): ${st.duplicates.slice(0, 3).map(entityLabel).join(', ')}`);

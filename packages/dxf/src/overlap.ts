@@ -24,31 +24,40 @@ export interface Merged {
  * in different pieces, or a short line lying on a long one, would otherwise leave ends in the
  * middle of another segment (under even-odd filling a doubled side cancels itself). Two lines
  * overlap when an end of one lies inside the other, farther than `tol` from its ends, and the
- * other end lies within `tol` of its line. Segments are binned in a grid, so ordinary drawings
- * cost linear time. Lines that merely meet end to end, or coincide exactly, are left to the
- * stitcher.
+ * other end lies within `tol` of its line. Lines are binned in a grid, so the cost is linear in
+ * the number of lines. Lines that merely meet end to end, or coincide exactly, are left to the
+ * stitcher. `tick` is called between stages (the caller's time limit).
  */
-export function mergeCollinear(pieces: readonly Piece[], tol: number, extent: number): Merged {
+export function mergeCollinear(pieces: readonly Piece[], tol: number, extent: number, tick: () => void = () => {}): Merged {
   const lines: number[] = [];
   pieces.forEach((p, i) => {
     if (p.seg.kind === 'line' && Math.hypot(p.seg.b.x - p.seg.a.x, p.seg.b.y - p.seg.a.y) > 2 * tol) lines.push(i);
   });
   if (lines.length < 2) return { pieces: [...pieces], folded: [] };
-  const cell = Math.max(extent / Math.sqrt(lines.length), 4 * tol, Number.MIN_VALUE);
-  const grid = new Map<string, number[]>();
   const seg = (i: number) => pieces[i]!.seg as LineSegment;
+  // Cells as large as an average line: each line is entered in the cells along it (about two a line
+  // on average) and each end looks in the 3 × 3 cells around it. Sizing cells from the extent instead
+  // would crowd a long column of small shapes into few cells (quadratic).
+  let total = 0;
+  for (const i of lines) total += lengthOf(seg(i));
+  const cell = Math.min(Math.max(total / lines.length, 4 * tol), extent) || 1;
+  const grid = new Map<string, number[]>();
+  const key = (x: number, y: number) => `${Math.floor(x / cell)},${Math.floor(y / cell)}`;
   for (const i of lines) {
     const { a, b } = seg(i);
-    const [x0, x1] = [Math.floor((Math.min(a.x, b.x) - tol) / cell), Math.floor((Math.max(a.x, b.x) + tol) / cell)];
-    const [y0, y1] = [Math.floor((Math.min(a.y, b.y) - tol) / cell), Math.floor((Math.max(a.y, b.y) + tol) / cell)];
-    for (let x = x0; x <= x1; x++)
-      for (let y = y0; y <= y1; y++) {
-        const k = `${x},${y}`;
-        const list = grid.get(k);
-        if (list) list.push(i);
-        else grid.set(k, [i]);
-      }
+    const steps = Math.ceil((2 * lengthOf(seg(i))) / cell);
+    let last = '';
+    for (let k = 0; k <= steps; k++) {
+      const k0 = key(a.x + ((b.x - a.x) * k) / steps, a.y + ((b.y - a.y) * k) / steps);
+      if (k0 === last) continue;
+      last = k0;
+      const list = grid.get(k0);
+      if (list) {
+        if (list[list.length - 1] !== i) list.push(i);
+      } else grid.set(k0, [i]);
+    }
   }
+  tick();
   const parent = new Map<number, number>();
   const find = (i: number): number => {
     let r = i;
@@ -66,18 +75,28 @@ export function mergeCollinear(pieces: readonly Piece[], tol: number, extent: nu
       [s.a, s.b],
       [s.b, s.a],
     ] as const) {
-      for (const j of grid.get(`${Math.floor(p.x / cell)},${Math.floor(p.y / cell)}`) ?? []) {
-        if (j === i) continue;
-        const o = seg(j);
-        const len = Math.hypot(o.b.x - o.a.x, o.b.y - o.a.y);
-        const hit = toSegment(p, o.a, o.b);
-        const inside = hit.d <= tol && hit.t * len > tol && (1 - hit.t) * len > tol;
-        if (inside && toSegment(q, o.a, o.b).off <= tol) union(i, j);
-      }
+      const [cx, cy] = [Math.floor(p.x / cell), Math.floor(p.y / cell)];
+      for (let dx = -1; dx <= 1; dx++)
+        for (let dy = -1; dy <= 1; dy++)
+          for (const j of grid.get(`${cx + dx},${cy + dy}`) ?? []) {
+            if (j === i) continue;
+            const o = seg(j);
+            const len = lengthOf(o);
+            const hit = toSegment(p, o.a, o.b);
+            const inside = hit.d <= tol && hit.t * len > tol && (1 - hit.t) * len > tol;
+            if (inside && toSegment(q, o.a, o.b).off <= tol) union(i, j);
+          }
     }
   }
+  tick();
   const clusters = new Map<number, number[]>();
-  for (const i of lines) if (parent.has(i)) clusters.set(find(i), [...(clusters.get(find(i)) ?? []), i]);
+  for (const i of lines) {
+    if (!parent.has(i)) continue;
+    const root = find(i);
+    const list = clusters.get(root);
+    if (list) list.push(i);
+    else clusters.set(root, [i]);
+  }
   if (!clusters.size) return { pieces: [...pieces], folded: [] };
 
   const out: Piece[] = [];

@@ -110,11 +110,13 @@ function sameCurve(e: Edge, f: Edge, tol: number): boolean {
  * Joins segments given in any order and direction into closed loops. Ends within `tol` of each
  * other become one point: a line's end moves onto it exactly (onto an arc's end where there is
  * one), two arcs meeting with a gap get a bridging line, so every loop closes exactly. Segments
- * that duplicate another are dropped; every point must then join exactly two ends.
+ * that duplicate another are dropped; every point must then join exactly two ends. `tick` is
+ * called between stages (the caller's time limit).
  */
-export function stitch(pieces: readonly Piece[], tol: number): Stitched {
+export function stitch(pieces: readonly Piece[], tol: number, tick: () => void = () => {}): Stitched {
   const ends = pieces.flatMap((p) => [startPoint(p.seg), endPoint(p.seg)]);
   const cluster = clusterEnds(ends, tol);
+  tick();
   // Each point's representative: an arc's end if one meets there (arc ends cannot move), else the first end.
   const rep = new Map<number, Point>();
   const repOnArc = new Set<number>();
@@ -169,6 +171,7 @@ export function stitch(pieces: readonly Piece[], tol: number): Stitched {
   const branching = faultAt((n) => n > 2);
   const open = faultAt((n) => n === 1);
 
+  tick();
   const loops = traceLoops(edges, at, tol);
   const closed = loops.filter((l) => l.closed).length;
   const fault: StitchFault | null =
