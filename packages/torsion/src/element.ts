@@ -165,7 +165,7 @@ function mean(rule: Rule, f: (l: Float64Array, q: number) => number): number {
  * MASS[i][j] = (1/A)∫ Ni·Nj dA. Evaluating these costs a few dozen operations per element, where
  * quadrature costs several hundred.
  */
-export const STIFF: readonly Float64Array[] = [0, 1, 2].map((p) => {
+export const STIFF = [0, 1, 2].map((p) => {
   const a = p;
   const b = (p + 1) % 3;
   const S = new Float64Array(36);
@@ -175,7 +175,7 @@ export const STIFF: readonly Float64Array[] = [0, 1, 2].map((p) => {
       S[6 * i + j] = Q(a, b) + Q(b, a) - Q(a, a) - Q(b, b);
     }
   return S;
-});
+}) as [Float64Array, Float64Array, Float64Array];
 
 export const LOAD = new Float64Array(54);
 export const FIRST = new Float64Array(18);

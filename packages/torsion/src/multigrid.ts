@@ -1,6 +1,6 @@
 import { TorsionError } from './errors';
 import type { Level } from './levels';
-import { patternOf, permute, reverseCuthillMcKee, type Csr } from './sparse';
+import { assembleRows, entry, permute, reverseCuthillMcKee, type Csr } from './sparse';
 
 /**
  * Dense-profile (envelope) Cholesky factor of a symmetric positive definite matrix in reverse
@@ -163,36 +163,53 @@ export function linearTransfer(L: Level): Csr {
   return csrFromRows(rows, vals, nv);
 }
 
+/** Cotangent form of the linear triangle: pair p = (a, a+1) contributes E_ab + E_ba − E_aa − E_bb. */
+const LINEAR = [0, 1, 2].map((p) => {
+  const a = p;
+  const b = (p + 1) % 3;
+  const S = new Float64Array(9);
+  S[3 * a + b] = S[3 * b + a] = 1;
+  S[3 * a + a] = S[3 * b + b] = -1;
+  return S;
+}) as [Float64Array, Float64Array, Float64Array];
+
 /** Stiffness of linear triangles (straight sides) on the corners of a level: the coarsest operator. */
 export function linearStiffness(L: Level, held: Uint8Array): Csr {
   const { x, y } = L.quad;
   const tri = L.tri.tri;
-  const nv = L.quad.corners;
-  const K = patternOf(tri, 3, nv);
-  for (let t = 0; t < tri.length / 3; t++) {
-    const v = [tri[3 * t]!, tri[3 * t + 1]!, tri[3 * t + 2]!];
-    const b = [y[v[1]!]! - y[v[2]!]!, y[v[2]!]! - y[v[0]!]!, y[v[0]!]! - y[v[1]!]!];
-    const c = [x[v[2]!]! - x[v[1]!]!, x[v[0]!]! - x[v[2]!]!, x[v[1]!]! - x[v[0]!]!];
-    const area4 = 2 * (b[0]! * c[1]! - b[1]! * c[0]!);
-    for (let i = 0; i < 3; i++)
-      for (let j = 0; j < 3; j++) {
-        const r = v[i]!;
-        let p = K.rowPtr[r]!;
-        while (K.col[p] !== v[j]) p++;
-        K.val[p]! += (b[i]! * b[j]! + c[i]! * c[j]!) / area4;
-      }
+  const nt = tri.length / 3;
+  // g_p = A·∇λa·∇λb = (ba·bb + ca·cb)/4A for the pair p = (a, a+1), as for the quadratic element.
+  const g = new Float64Array(3 * nt);
+  for (let t = 0; t < nt; t++) {
+    const v0 = tri[3 * t]!;
+    const v1 = tri[3 * t + 1]!;
+    const v2 = tri[3 * t + 2]!;
+    const b0 = y[v1]! - y[v2]!;
+    const b1 = y[v2]! - y[v0]!;
+    const b2 = y[v0]! - y[v1]!;
+    const c0 = x[v2]! - x[v1]!;
+    const c1 = x[v0]! - x[v2]!;
+    const c2 = x[v1]! - x[v0]!;
+    const d = b0 * c1 - b1 * c0;
+    g[3 * t] = (b0 * b1 + c0 * c1) / (2 * d);
+    g[3 * t + 1] = (b1 * b2 + c1 * c2) / (2 * d);
+    g[3 * t + 2] = (b2 * b0 + c2 * c0) / (2 * d);
   }
+  const K = assembleRows(tri, 3, L.quad.corners, LINEAR, g, null, null);
   holdRows(K, held);
   return K;
 }
 
 /** Rows and columns of held nodes become those of the identity (ω = 0 there). */
 export function holdRows(K: Csr, held: Uint8Array): void {
-  for (let i = 0; i < K.n; i++)
-    for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) {
+  for (let h = 0; h < K.n; h++) {
+    if (!held[h]) continue;
+    for (let k = K.rowPtr[h]!; k < K.rowPtr[h + 1]!; k++) {
       const j = K.col[k]!;
-      if (held[i] || held[j]) K.val[k] = i === j ? 1 : 0;
+      K.val[k] = j === h ? 1 : 0;
+      if (j !== h) K.val[entry(K, j, h)] = 0;
     }
+  }
 }
 
 export interface GridLevel {

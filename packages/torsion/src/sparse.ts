@@ -12,55 +12,33 @@ export interface Csr {
 }
 
 /**
- * Sparsity pattern of a finite-element matrix: rows i and j couple when nodes i and j share an
- * element. `el` lists `per` node numbers for each element.
+ * Sparsity pattern of a finite-element matrix, values zero: rows i and j couple when nodes i and j
+ * share an element. `el` lists `per` node numbers for each element.
  */
 export function patternOf(el: ArrayLike<number>, per: number, n: number): Csr {
-  const ne = el.length / per;
-  const deg = new Int32Array(n + 1);
-  for (let k = 0; k < el.length; k++) deg[el[k]! + 1]!++;
-  for (let i = 0; i < n; i++) deg[i + 1]! += deg[i]!;
-  const elsOf = new Int32Array(el.length);
-  const fill = deg.slice(0, n);
-  for (let e = 0; e < ne; e++) for (let k = 0; k < per; k++) elsOf[fill[el[e * per + k]!]!++] = e;
-  const mark = new Int32Array(n).fill(-1);
-  // Upper bound of each row's length, then compact after de-duplication.
-  let cap = 0;
-  for (let i = 0; i < n; i++) cap += (deg[i + 1]! - deg[i]!) * per;
-  const cols = new Int32Array(cap);
-  const rowPtr = new Int32Array(n + 1);
-  let p = 0;
-  for (let i = 0; i < n; i++) {
-    const r0 = p;
-    for (let s = deg[i]!; s < deg[i + 1]!; s++) {
-      const e = elsOf[s]!;
-      for (let k = 0; k < per; k++) {
-        const j = el[e * per + k]!;
-        if (mark[j] !== i) {
-          mark[j] = i;
-          // Insertion into the sorted row.
-          let q = p++;
-          while (q > r0 && cols[q - 1]! > j) {
-            cols[q] = cols[q - 1]!;
-            q--;
-          }
-          cols[q] = j;
-        }
-      }
-    }
-    rowPtr[i + 1] = p;
-  }
-  const col = cols.slice(0, p);
-  return { n, rowPtr, col, val: new Float64Array(p) };
+  const zero = new Float64Array(per * per);
+  return assembleRows(Uint32Array.from(el), per, n, [zero, zero, zero], new Float64Array((3 * el.length) / per), null, null);
 }
 
 /**
- * Assembled finite-element matrix from element matrices (`ke`: per × per values, row-major, for
- * each element of `el`), row by row: the elements around a node add their rows into a dense
- * scratch row, whose columns are then written out in ascending order. Pattern and values come
- * out of one sweep, with no search for an entry's position.
+ * Assembled finite-element matrix, row by row: the elements around a node add their rows into a
+ * dense scratch row, whose columns are then written out in ascending order (pattern and values
+ * in one sweep, no search for an entry's position). Element e's matrix is
+ * g[3e]·S[0] + g[3e + 1]·S[1] + g[3e + 2]·S[2] with fixed per × per matrices S (the cotangent form
+ * of a straight-sided element: three numbers to store per element, not per²), or, where
+ * own[e] ≥ 0, its own matrix ke[per²·own[e] …] (row-major; elements with a curved side).
  */
-export function assembleRows(el: Uint32Array, per: number, ke: Float64Array, n: number): Csr {
+export function assembleRows(
+  el: Uint32Array,
+  per: number,
+  n: number,
+  S: readonly [Float64Array, Float64Array, Float64Array],
+  g: Float64Array,
+  own: Int32Array | null,
+  ke: Float64Array | null,
+): Csr {
+  const [S0, S1, S2] = S;
+  const pp = per * per;
   // Slots of each node's (element, local index) pairs, by counting sort.
   const start = new Int32Array(n + 1);
   for (let k = 0; k < el.length; k++) start[el[k]! + 1]!++;
@@ -95,7 +73,11 @@ export function assembleRows(el: Uint32Array, per: number, ke: Float64Array, n: 
     for (let s = start[i]!; s < start[i + 1]!; s++) {
       const k = slot[s]!;
       const e = (k / per) | 0;
-      const row = (k - e * per) * per + e * per * per;
+      const row = (k - e * per) * per;
+      const o = own ? own[e]! : -1;
+      const g0 = g[3 * e]!;
+      const g1 = g[3 * e + 1]!;
+      const g2 = g[3 * e + 2]!;
       for (let j = 0; j < per; j++) {
         const c = el[e * per + j]!;
         if (mark[c] !== i) {
@@ -109,7 +91,8 @@ export function assembleRows(el: Uint32Array, per: number, ke: Float64Array, n: 
           }
           col[q] = c;
         }
-        acc[c]! += ke[row + j]!;
+        const r = row + j;
+        acc[c]! += o >= 0 ? ke![o * pp + r]! : g0 * S0[r]! + g1 * S1[r]! + g2 * S2[r]!;
       }
     }
     for (let q = r0; q < p; q++) val[q] = acc[col[q]!]!;

@@ -136,19 +136,23 @@ export function assemble(mesh: QuadMesh): Assembly {
   const cx = Sx / A;
   const cy = Sy / A;
 
-  // Element stiffness (36 values each), load and second moments, coordinates about the centroid.
-  const ke = new Float64Array(36 * ne);
+  // Stiffness (the three cotangent weights of a straight element; the 36 values of a curved one),
+  // load and second moments, coordinates about the centroid.
+  const g = new Float64Array(3 * ne);
+  const own = new Int32Array(ne).fill(-1);
+  let curvedCount = 0;
+  for (let e = 0; e < ne; e++) if (curved[e]) own[e] = curvedCount++;
+  const ke = new Float64Array(36 * curvedCount);
   const f = new Float64Array(nn);
   let Ix = 0;
   let Iy = 0;
   let Ixy = 0;
   // Module bindings read once: in the loops they would be live-binding lookups.
-  const [S0, S1, S2] = STIFF as [Float64Array, Float64Array, Float64Array];
   const Lo = LOAD;
   for (let e = 0; e < ne; e++) {
-    const o = 36 * e;
     const n = 6 * e;
     if (curved[e]) {
+      const o = 36 * own[e]!;
       gather(mesh, e, cx, cy, ex, ey);
       E.evaluate(ex, ey, RULE6);
       for (let q = 0; q < 6; q++) {
@@ -180,10 +184,9 @@ export function assemble(mesh: QuadMesh): Assembly {
     const c1 = X0 - X2;
     const c2 = X1 - X0;
     const d = b0 * c1 - b1 * c0; // twice the area
-    const g0 = (b0 * b1 + c0 * c1) / (2 * d);
-    const g1 = (b1 * b2 + c1 * c2) / (2 * d);
-    const g2 = (b2 * b0 + c2 * c0) / (2 * d);
-    for (let k = 0; k < 36; k++) ke[o + k] = g0 * S0[k]! + g1 * S1[k]! + g2 * S2[k]!;
+    g[3 * e] = (b0 * b1 + c0 * c1) / (2 * d);
+    g[3 * e + 1] = (b1 * b2 + c1 * c2) / (2 * d);
+    g[3 * e + 2] = (b2 * b0 + c2 * c0) / (2 * d);
     // f_i = ∫(y·∂Ni/∂x − x·∂Ni/∂y) dA = ½ Σ_ac (b_a·y_c − c_a·x_c)·LOAD[i][a][c].
     const bs = [b0, b1, b2];
     const cs = [c0, c1, c2];
@@ -202,7 +205,7 @@ export function assemble(mesh: QuadMesh): Assembly {
   }
 
   // Mesh levels number nodes coarse-first and the coarsest mesh is spatially ordered: keep that order.
-  const K = assembleRows(el, 6, ke, nn);
+  const K = assembleRows(el, 6, nn, STIFF, g, own, ke);
   const { component, components } = piecesOf(K);
 
   // One node per connected piece held at zero: its smallest node, a corner of the coarsest mesh,

@@ -63,18 +63,28 @@ describe('straight six-node triangle in closed form', () => {
 });
 
 describe('row-wise assembly', () => {
-  it('sums element matrices into sorted rows (two 3-node elements sharing an edge)', () => {
+  it('sums element matrices into sorted rows: two 3-node elements sharing an edge, one in cotangent form, one with its own matrix', () => {
     const el = Uint32Array.from([0, 1, 2, 2, 1, 3]);
-    const ke = Float64Array.from({ length: 18 }, (_, k) => k + 1);
-    const K = assembleRows(el, 3, ke, 4);
+    const S = [0, 1, 2].map((p) => Float64Array.from({ length: 9 }, (_, k) => (k % 4 === 0 ? 2 : 1) * (p + 1) + k)) as [
+      Float64Array,
+      Float64Array,
+      Float64Array,
+    ];
+    const g = Float64Array.from([0.5, -1.5, 2, 0, 0, 0]);
+    const own = Int32Array.from([-1, 0]);
+    const ke = Float64Array.from({ length: 9 }, (_, k) => 10 + k * k);
+    const K = assembleRows(el, 3, 4, S, g, own, ke);
     const dense = Array.from({ length: 4 }, () => new Array<number>(4).fill(0));
-    for (let e = 0; e < 2; e++)
-      for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) dense[el[3 * e + i]!]![el[3 * e + j]!]! += ke[9 * e + 3 * i + j]!;
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) {
+        dense[el[i]!]![el[j]!]! += g[0]! * S[0][3 * i + j]! + g[1]! * S[1][3 * i + j]! + g[2]! * S[2][3 * i + j]!;
+        dense[el[3 + i]!]![el[3 + j]!]! += ke[3 * i + j]!;
+      }
     for (let i = 0; i < 4; i++) {
       for (let k = K.rowPtr[i]! + 1; k < K.rowPtr[i + 1]!; k++) expect(K.col[k]!).toBeGreaterThan(K.col[k - 1]!);
       for (let j = 0; j < 4; j++) {
         const p = entry(K, i, j);
-        expect(p >= 0 ? K.val[p]! : 0).toBe(dense[i]![j]!);
+        expect(p >= 0 ? K.val[p]! : 0).toBeCloseTo(dense[i]![j]!, 12);
       }
     }
     // Nodes 0 and 3 share no element: outside the pattern.
