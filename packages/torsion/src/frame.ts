@@ -132,6 +132,24 @@ export function curveY(c: Curve, t: number): number {
   return c.cy + c.uy * Math.cos(th) + c.vy * Math.sin(th);
 }
 
+/**
+ * Side node of a quadratic element side on an arc between parameters t0 and t1: on the ray to the
+ * arc's middle, where the quadratic side through the two ends and this node encloses the same
+ * area as the arc (rather than on the arc, where it cuts off 1/16 of the segment's area more or
+ * less than the arc). The boundary's area error then vanishes and its first-order effect on J
+ * with it, so the remaining geometric error is of higher order than the element's and the
+ * Richardson estimate sees one error of one sign. For a circle of radius r and half-turn φ the
+ * side's height over the chord is h = 3r(2φ − sin 2φ)/(8 sin φ) (segment area r²(2φ − sin 2φ)/2,
+ * parabolic area ⅔·chord·h), i.e. the node at radius ρr, ρ = cos φ + h/r; an elliptical arc is
+ * the affine image of a circular one, and both areas scale alike.
+ */
+export function arcSideNode(c: Curve, t0: number, t1: number): [number, number] {
+  const phi = Math.abs((t1 - t0) * c.sweep) / 2;
+  const rho = Math.cos(phi) + (3 * (2 * phi - Math.sin(2 * phi))) / (8 * Math.sin(phi));
+  const th = c.a0 + ((t0 + t1) / 2) * c.sweep;
+  return [c.cx + rho * (c.ux * Math.cos(th) + c.vx * Math.sin(th)), c.cy + rho * (c.uy * Math.cos(th) + c.vy * Math.sin(th))];
+}
+
 /** Unit tangent in the direction of travel at parameter t. */
 export function curveTangent(c: Curve, t: number): [number, number] {
   if (!c.arc) {

@@ -1,11 +1,12 @@
-import { curveX, curveY } from './frame';
+import { arcSideNode, curveX, curveY } from './frame';
 import type { TriMesh } from './mesh';
 
 /**
  * Six-node (quadratic) triangles. Nodes 0 … nv−1 are the triangle corners, then one node per
  * edge. Element k lists corners v0 v1 v2 (counter-clockwise), then the nodes on edges v0–v1,
- * v1–v2, v2–v0. A node on a curved boundary edge sits on the exact arc at its middle parameter,
- * making the elements beside an arc isoparametric; every other edge node is the edge's midpoint.
+ * v1–v2, v2–v0. Corners on a curved boundary lie on the exact arc; the node on a curved boundary
+ * edge sits where the quadratic side encloses the arc's area (`arcSideNode`), making the elements
+ * beside an arc isoparametric; every other edge node is the edge's midpoint.
  */
 export interface QuadMesh {
   readonly x: Float64Array;
@@ -90,7 +91,7 @@ function boundaryOfEdges(m: TriMesh, E: Edges): Int32Array {
   return out;
 }
 
-/** Edge midpoints: on the exact curve for boundary arcs, straight otherwise. */
+/** Edge nodes: area-preserving on boundary arcs (`arcSideNode`), straight midpoints otherwise. */
 function midpoints(m: TriMesh, E: Edges, bEdge: Int32Array): { mx: Float64Array; my: Float64Array; bent: Uint8Array } {
   const ne = E.ea.length;
   const mx = new Float64Array(ne);
@@ -105,9 +106,7 @@ function midpoints(m: TriMesh, E: Edges, bEdge: Int32Array): { mx: Float64Array;
     if (bk < 0) continue;
     const c = m.curves[m.bc[bk]!]!;
     if (!c.arc) continue;
-    const t = (m.bt0[bk]! + m.bt1[bk]!) / 2;
-    mx[k] = curveX(c, t);
-    my[k] = curveY(c, t);
+    [mx[k], my[k]] = arcSideNode(c, m.bt0[bk]!, m.bt1[bk]!);
     bent[k] = 1;
   }
   return { mx, my, bent };
@@ -147,9 +146,10 @@ export function quadratic(m: TriMesh): Level {
 }
 
 /**
- * Uniform refinement: every triangle splits into four through its edge midpoints (on the exact
- * curve at boundary arcs). The new corners are numbered as the parent level's quadratic nodes,
- * so a quadratic field on the parent is known at them without interpolation.
+ * Uniform refinement: every triangle splits into four through its edge nodes; at boundary arcs
+ * the new corner moves from the parent's side node onto the exact curve, at the middle
+ * parameter. The new corners are numbered as the parent level's quadratic nodes, so a quadratic
+ * field on the parent is known at them without interpolation.
  */
 export function refine(L: Level): TriMesh {
   const m = L.tri;
@@ -167,11 +167,18 @@ export function refine(L: Level): TriMesh {
   const bt0 = new Float64Array(2 * nb);
   const bt1 = new Float64Array(2 * nb);
   const nv = m.x.length;
+  const x = quad.x.slice();
+  const y = quad.y.slice();
   for (let k = 0; k < nb; k++) {
     const a = m.ba[k]!;
     const b = m.bb[k]!;
     const mid = nv + findEdge(L.edges, a, b);
     const tm = (m.bt0[k]! + m.bt1[k]!) / 2;
+    const c = m.curves[m.bc[k]!]!;
+    if (c.arc) {
+      x[mid] = curveX(c, tm);
+      y[mid] = curveY(c, tm);
+    }
     ba[2 * k] = a;
     bb[2 * k] = mid;
     ba[2 * k + 1] = mid;
@@ -182,7 +189,7 @@ export function refine(L: Level): TriMesh {
     bt0[2 * k + 1] = tm;
     bt1[2 * k + 1] = m.bt1[k]!;
   }
-  return { ...m, x: quad.x, y: quad.y, tri, ba, bb, bc, bt0, bt1 };
+  return { ...m, x, y, tri, ba, bb, bc, bt0, bt1 };
 }
 
 /**
