@@ -67,21 +67,31 @@ function sizeOf(seg: Segment): number {
 /**
  * Groups end points closer than tol (chains of such points merge). Points are binned in a grid of
  * cell tol, so only the 3 × 3 cells around a point are searched: linear for ordinary drawings.
+ * Cells are numbered row by row over the points' box (no string keys: this runs for every end of
+ * every drawing), unless the grid would be too fine to number exactly.
  */
 function clusterEnds(ends: readonly Point[], tol: number): number[] {
   const uf = new UnionFind(ends.length);
   const cell = tol > 0 ? tol : 1;
-  const grid = new Map<string, number[]>();
-  const at = (p: Point) => [Math.floor(p.x / cell), Math.floor(p.y / cell)] as const;
+  let [x0, y0, x1, y1] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const p of ends) [x0, y0, x1, y1] = [Math.min(x0, p.x), Math.min(y0, p.y), Math.max(x1, p.x), Math.max(y1, p.y)];
+  const cols = Math.floor((x1 - x0) / cell) + 3;
+  const rows = Math.floor((y1 - y0) / cell) + 3;
+  const numbered = cols * rows < 2 ** 52;
+  const grid = new Map<number | string, number[]>();
+  const key = (cx: number, cy: number): number | string => (numbered ? cx * rows + cy : `${cx},${cy}`);
   ends.forEach((p, i) => {
-    const [cx, cy] = at(p);
+    const cx = Math.floor((p.x - x0) / cell) + 1;
+    const cy = Math.floor((p.y - y0) / cell) + 1;
     for (let dx = -1; dx <= 1; dx++)
-      for (let dy = -1; dy <= 1; dy++)
-        for (const j of grid.get(`${cx + dx},${cy + dy}`) ?? []) if (dist(p, ends[j]!) <= tol) uf.union(i, j);
-    const key = `${cx},${cy}`;
-    const list = grid.get(key);
+      for (let dy = -1; dy <= 1; dy++) {
+        const list = grid.get(key(cx + dx, cy + dy));
+        if (list) for (const j of list) if (dist(p, ends[j]!) <= tol) uf.union(i, j);
+      }
+    const k = key(cx, cy);
+    const list = grid.get(k);
     if (list) list.push(i);
-    else grid.set(key, [i]);
+    else grid.set(k, [i]);
   });
   return ends.map((_, i) => uf.find(i));
 }
