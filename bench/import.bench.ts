@@ -10,7 +10,7 @@
 import { createRequire } from 'node:module';
 import { cpus } from 'node:os';
 import { performance } from 'node:perf_hooks';
-import { readDrawing } from '@keelson/dxf';
+import { readDrawing, type Drawing } from '@keelson/dxf';
 import { sectionProperties, segmentCount, transformRegion } from '@keelson/geometry';
 import { PROFILES, renderProfile } from '../fixtures/catalogue';
 
@@ -45,7 +45,7 @@ let propsS = Infinity;
 let parseS = Infinity;
 for (let round = 0; round < 3; round++) {
   const t0 = performance.now();
-  const read = [];
+  const read: Drawing[] = [];
   for (const [i, d] of drawings.entries()) read.push(await readDrawing(d, { file: `p${i}.dxf` }));
   importS = Math.min(importS, (performance.now() - t0) / 1000);
   segments = read.reduce((n, r) => n + segmentCount(r.region), 0);
