@@ -6,7 +6,7 @@
  * bounded in count.
  *
  *   pnpm bench:api                      # 50 concurrent, 5,000 requests per phase
- *   BENCH_REQUESTS=1000 BENCH_CONCURRENCY=20 pnpm bench:api
+ *   BENCH_REQUESTS=1000 BENCH_CONCURRENCY=20 BENCH_ROUNDS=5 BENCH_TORSION_REQUESTS=0 pnpm bench:api
  *
  * Phases: "computed" gives each upload its own file name, so the result key differs and every
  * request is computed in a worker thread (closed-form properties, torsion=false); "cached" repeats
@@ -15,6 +15,7 @@
  */
 import { spawn } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { Agent, request } from 'node:http';
 import { availableParallelism, cpus, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createInterface } from 'node:readline';
@@ -23,6 +24,8 @@ const root = join(import.meta.dirname, '..');
 const REQUESTS = Number(process.env.BENCH_REQUESTS ?? 5000);
 const CONCURRENCY = Number(process.env.BENCH_CONCURRENCY ?? 50);
 const TORSION_REQUESTS = Number(process.env.BENCH_TORSION_REQUESTS ?? 200);
+/** Rounds of `computed` requests: resident memory must level off across them. */
+const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 3);
 const drawing = readFileSync(join(root, 'fixtures/demo/mx132-i-beam-120x70.dxf'));
 
 const dataDir = mkdtempSync(join(tmpdir(), 'keelson-bench-'));
@@ -39,26 +42,46 @@ const url = await new Promise<string>((resolve, reject) => {
   server.on('exit', (code) => reject(new Error(`server exited with ${code}`)));
 });
 
-async function rssMiB(): Promise<number> {
+/** The server's resident memory (all threads) and main-thread V8 heap in use, MiB, from /metrics. */
+async function memory(): Promise<{ rss: number; heap: number }> {
   const text = await (await fetch(`${url}/metrics`)).text();
-  return Number(/^keelson_process_resident_memory_bytes (\S+)$/m.exec(text)?.[1]) / 2 ** 20;
+  const metric = (name: string) => Number(new RegExp(`^${name} (\\S+)$`, 'm').exec(text)?.[1]) / 2 ** 20;
+  return { rss: metric('keelson_process_resident_memory_bytes'), heap: metric('keelson_nodejs_heap_size_used_bytes') };
 }
 
-async function upload(name: string, fields: Record<string, string>): Promise<number> {
-  const form = new FormData();
-  for (const [k, v] of Object.entries(fields)) form.set(k, v);
-  form.set('file', new Blob([drawing]), name);
+// The client shares the machine's two cores with the server: keep it cheap, with keep-alive
+// connections and multipart bodies assembled from fixed pieces (fetch with FormData costs the
+// client more CPU than the server spends answering).
+const agent = new Agent({ keepAlive: true, maxSockets: CONCURRENCY });
+const BOUNDARY = 'keelson-bench-boundary';
+
+function body(name: string, fields: Record<string, string>): Buffer {
+  const parts = Object.entries(fields).map(([k, v]) => `--${BOUNDARY}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`);
+  const head = `${parts.join('')}--${BOUNDARY}\r\nContent-Disposition: form-data; name="file"; filename="${name}"\r\nContent-Type: application/dxf\r\n\r\n`;
+  return Buffer.concat([Buffer.from(head), drawing, Buffer.from(`\r\n--${BOUNDARY}--\r\n`)]);
+}
+
+function upload(name: string, fields: Record<string, string>): Promise<number> {
+  const payload = body(name, fields);
   const t0 = performance.now();
-  const r = await fetch(`${url}/v1/compute`, { method: 'POST', body: form });
-  await r.arrayBuffer();
-  if (r.status !== 200) throw new Error(`${name}: HTTP ${r.status}`);
-  return performance.now() - t0;
+  return new Promise((resolve, reject) => {
+    const req = request(
+      `${url}/v1/compute`,
+      { method: 'POST', agent, headers: { 'content-type': `multipart/form-data; boundary=${BOUNDARY}`, 'content-length': payload.length } },
+      (res) => {
+        res.resume();
+        res.on('end', () => (res.statusCode === 200 ? resolve(performance.now() - t0) : reject(new Error(`${name}: HTTP ${res.statusCode}`))));
+      },
+    );
+    req.on('error', reject);
+    req.end(payload);
+  });
 }
 
 const pct = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]!;
 
 async function phase(label: string, n: number, nameOf: (i: number) => string, fields: Record<string, string>) {
-  const before = await rssMiB();
+  const before = await memory();
   const latencies: number[] = [];
   let next = 0;
   const t0 = performance.now();
@@ -71,24 +94,30 @@ async function phase(label: string, n: number, nameOf: (i: number) => string, fi
     }),
   );
   const seconds = (performance.now() - t0) / 1000;
-  const after = await rssMiB();
+  const after = await memory();
   latencies.sort((a, b) => a - b);
-  const row = [label, String(n), (n / seconds).toFixed(1), pct(latencies, 50).toFixed(1), pct(latencies, 99).toFixed(1), before.toFixed(0), after.toFixed(0)];
+  const row = [
+    label,
+    String(n),
+    (n / seconds).toFixed(1),
+    pct(latencies, 50).toFixed(1),
+    pct(latencies, 99).toFixed(1),
+    `${before.rss.toFixed(0)} → ${after.rss.toFixed(0)}`,
+    `${before.heap.toFixed(0)} → ${after.heap.toFixed(0)}`,
+  ];
   console.log(row.map((c, i) => (i === 0 ? c.padEnd(22) : c.padStart(9))).join('  '));
 }
 
 try {
   console.log(`keelson serve on ${url}: ${availableParallelism()} worker threads (${cpus()[0]?.model ?? 'cpu'}), Node ${process.version}`);
   console.log(`${CONCURRENCY} concurrent uploads of mx132-i-beam-120x70.dxf (${drawing.length} bytes); client and server share this machine\n`);
-  console.log(['phase', 'requests', 'req/s', 'p50 ms', 'p99 ms', 'RSS MiB', 'after'].map((c, i) => (i === 0 ? c.padEnd(22) : c.padStart(9))).join('  '));
+  console.log(['phase', 'requests', 'req/s', 'p50 ms', 'p99 ms', 'RSS MiB', 'heap MiB'].map((c, i) => (i === 0 ? c.padEnd(22) : c.padStart(9))).join('  '));
   await phase('warm-up', 200, (i) => `warm-${i}.dxf`, { torsion: 'false' });
-  let run = 0;
-  await phase('computed', REQUESTS, (i) => `beam-${run}-${i}.dxf`, { torsion: 'false' });
-  run++;
-  await phase('computed (again)', REQUESTS, (i) => `beam-${run}-${i}.dxf`, { torsion: 'false' });
+  for (let run = 1; run <= ROUNDS; run++) await phase(`computed (round ${run})`, REQUESTS, (i) => `beam-${run}-${i}.dxf`, { torsion: 'false' });
   await phase('cached', REQUESTS, () => 'beam-cached.dxf', { torsion: 'false' });
   if (TORSION_REQUESTS > 0) await phase('torsion (J, Cw, xs, ys)', TORSION_REQUESTS, (i) => `beam-t-${i}.dxf`, {});
 } finally {
+  agent.destroy();
   server.kill('SIGTERM');
   await new Promise((r) => server.once('exit', r));
   rmSync(dataDir, { recursive: true, force: true });

@@ -100,7 +100,10 @@ export class ComputePool {
     const timer = setTimeout(() => timeout.abort(), this.opts.timeoutMs);
     const signal = w.signal ? AbortSignal.any([w.signal, timeout.signal]) : timeout.signal;
     try {
-      w.resolve((await this.piscina.run(w.input, { signal })) as TaskOutput);
+      // An exact-size copy, moved to the thread: a Buffer may view a larger pooled ArrayBuffer, which
+      // structured cloning would copy whole.
+      const bytes = new Uint8Array(w.input.bytes);
+      w.resolve((await this.piscina.run({ ...w.input, bytes }, { signal, transferList: [bytes.buffer] })) as TaskOutput);
     } catch (e) {
       if (timeout.signal.aborted)
         w.resolve({ ok: false, code: 'DRAWING_TIMEOUT', message: `${w.input.source}: computing took longer than ${this.opts.timeoutMs / 1000} s` });
