@@ -279,6 +279,7 @@ describe('closed forms from the import fixtures (relative 1e-9)', () => {
 
   it('LWPOLYLINE with vertex identifiers (91) and a width: every vertex read, the width reported', async () => {
     const { p, d } = await read('vertex-ids-width');
+    // Square 10 × 10 — common practice.
     close(p.A, 100);
     expect(d.warnings.join()).toMatch(/has a width: its centreline is used/);
   });

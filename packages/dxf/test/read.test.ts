@@ -158,6 +158,7 @@ describe('stitching and nesting', () => {
     await expect(read(t)).rejects.toMatchObject({ code: 'BRANCHING_OUTLINE', message: /more than two segment ends meet at \(1, [01]\)/ });
     // The bottom side drawn again in two pieces that overlap it: folded into one line.
     const overlap = await read(dxf([...rectLines(0, 0, 4, 1), LINE([0, 0], [2.5, 0]), LINE([4, 0], [1.5, 0])]));
+    // Rectangle 4 × 1 — common practice.
     close(area(overlap.region), 4);
     expect(overlap.warnings.join()).toMatch(/merged 2 line\(s\) overlapping others along the same line/);
     // Two 2 × 2 squares overlapping by a unit square: 4 + 4 − 1 — composite areas, common practice.

@@ -59,7 +59,7 @@ describe('options of keelson props', () => {
     const closed = await json('props', fixture('rectangle-lines-open-gaps'), '--join-tolerance', '1');
     expect(closed.code).toBe(0);
     const e = closed.entries[0]!;
-    // The rectangle is 120 × 80 = 9600 mm² up to the gaps closed (0.8 mm at four corners).
+    // The rectangle is 120 × 80 = 9600 mm² (common practice) up to the gaps closed (0.8 mm at four corners).
     expect(Math.abs(e.properties!.A! / 9600 - 1)).toBeLessThanOrEqual(e.accuracy!.A!);
     expect(e.accuracy!.A!).toBeGreaterThan(1e-4);
     expect(e.accuracy!.xpna).toBeUndefined();
