@@ -218,6 +218,11 @@ function facingSizes(B: Boundary, p: MeshParams): number {
   return splits;
 }
 
+/** An arc bulging out of the solid (its centre of curvature on the solid's side, the left). */
+function isConvex(c: Curve): boolean {
+  return c.arc && (c.ux * c.vy - c.uy * c.vx) * c.sweep > 0;
+}
+
 /** Largest angle one boundary side may turn through on an arc of radius r. */
 export function arcStep(r: number, p: MeshParams): number {
   return Math.min(Math.PI / 4, Math.pow(p.sagitta / (0.00195 * r), 0.25));
@@ -328,6 +333,11 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
   for (const v of B.subsegments()) hmin = Math.min(hmin, B.want[v]!);
   const field = new SizeField(p.hmax, p.grading, Math.min(256, Math.max(32, Math.ceil(1 / hmin))));
   for (const v of B.subsegments()) {
+    // Convex arcs are split finely only to follow the curve: the warping function is smooth
+    // beside them (the shear stress falls towards a rounded convex corner), so they do not shrink
+    // the elements inside; the angle bound alone grades the elements beside their short sides.
+    // Concave arcs (root fillets) concentrate the stress and keep their small size inside.
+    if (isConvex(curves[B.curve[v]!]!)) continue;
     const w = B.next[v]!;
     field.source((B.x[v]! + B.x[w]!) / 2, (B.y[v]! + B.y[w]!) / 2, B.want[v]!);
   }

@@ -272,34 +272,41 @@ export class Multigrid {
     const [res, bc, xc] = this.scratch[l]!;
     // Forward sweep from x = 0: row i sees only the new values before it. Its residual is then
     // b_i − Σ_{j<i} K_ij·x_j − K_ii·x_i − Σ_{j>i} K_ij·x_j = −Σ_{j>i} K_ij·x_j, so sweep and
-    // residual together read each row once.
+    // residual together read each row once. (Loop bounds are read into locals: the engine cannot
+    // tell that the arrays written do not alias them, and would reload them at every step.)
     for (let i = 0; i < n; i++) {
       let s = b[i]!;
-      for (let k = rowPtr[i]!; k < dpos[i]!; k++) s -= val[k]! * x[col[k]!]!;
+      const d = dpos[i]!;
+      for (let k = rowPtr[i]!; k < d; k++) s -= val[k]! * x[col[k]!]!;
       x[i] = s / diag[i]!;
     }
     for (let i = 0; i < n; i++) {
       let s = 0;
-      for (let k = dpos[i]! + 1; k < rowPtr[i + 1]!; k++) s -= val[k]! * x[col[k]!]!;
+      const e = rowPtr[i + 1]!;
+      for (let k = dpos[i]! + 1; k < e; k++) s -= val[k]! * x[col[k]!]!;
       res![i] = s;
     }
     // bc = Pᵀ·res, with the coarse level's held nodes left out.
+    const { rowPtr: pr, col: pc, val: pv } = P;
     bc!.fill(0);
     for (let i = 0; i < n; i++) {
       const ri = res![i]!;
-      for (let k = P.rowPtr[i]!; k < P.rowPtr[i + 1]!; k++) bc![P.col[k]!]! += P.val[k]! * ri;
+      const e = pr[i + 1]!;
+      for (let k = pr[i]!; k < e; k++) bc![pc[k]!]! += pv[k]! * ri;
     }
     const heldC = l > 0 ? this.levels[l - 1]!.held : this.coarseHeld;
     for (let i = 0; i < bc!.length; i++) if (heldC[i]) bc![i] = 0;
     this.cycle(l - 1, bc!, xc!);
     for (let i = 0; i < n; i++) {
       let s = 0;
-      for (let k = P.rowPtr[i]!; k < P.rowPtr[i + 1]!; k++) s += P.val[k]! * xc![P.col[k]!]!;
+      const e = pr[i + 1]!;
+      for (let k = pr[i]!; k < e; k++) s += pv[k]! * xc![pc[k]!]!;
       x[i]! += s;
     }
     for (let i = n - 1; i >= 0; i--) {
       let s = b[i]!;
-      for (let k = rowPtr[i]!; k < rowPtr[i + 1]!; k++) s -= val[k]! * x[col[k]!]!;
+      const e = rowPtr[i + 1]!;
+      for (let k = rowPtr[i]!; k < e; k++) s -= val[k]! * x[col[k]!]!;
       x[i]! += s / diag[i]!;
     }
   }

@@ -119,7 +119,8 @@ export function multiply(A: Csr, x: Float64Array, y: Float64Array): void {
   const { n, rowPtr, col, val } = A;
   for (let i = 0; i < n; i++) {
     let s = 0;
-    for (let k = rowPtr[i]!; k < rowPtr[i + 1]!; k++) s += val[k]! * x[col[k]!]!;
+    const e = rowPtr[i + 1]!; // a local bound: the engine would reload it (y might alias it)
+    for (let k = rowPtr[i]!; k < e; k++) s += val[k]! * x[col[k]!]!;
     y[i] = s;
   }
 }

@@ -275,7 +275,8 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   for (let i = 0; i < nn; i++) {
     fu += f[i]! * u[i]!;
     let s = 0;
-    for (let k = K.rowPtr[i]!; k < K.rowPtr[i + 1]!; k++) s += K.val[k]! * u[K.col[k]!]!;
+    const e = K.rowPtr[i + 1]!;
+    for (let k = K.rowPtr[i]!; k < e; k++) s += K.val[k]! * u[K.col[k]!]!;
     uKu += u[i]! * s;
   }
   const J = Ix + Iy - (2 * fu - uKu);
