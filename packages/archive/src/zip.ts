@@ -23,6 +23,8 @@ export type ZipDrawing =
 
 export interface ZipCatalogue {
   readonly drawings: ZipDrawing[];
+  /** Entries asked for by `alsoRead` (a catalogue's manifest), read under the same caps. */
+  readonly files: { readonly name: string; readonly data: Buffer }[];
   /** Entries that are not drawings (readme files, images…), by name: listed, not read. */
   readonly ignored: string[];
 }
@@ -67,16 +69,22 @@ function inflate(zip: ZipFile, entry: Entry, cap: number): Promise<Buffer | 'ove
 }
 
 /**
- * Reads every `.dxf` entry of a ZIP catalogue (yauzl with lazy entries), each independently: a
+ * Reads every `.dxf` entry of a ZIP catalogue (yauzl with lazy entries), and the other entries
+ * `alsoRead` accepts (a manifest), each independently: a
  * broken, oversized, nested-archive or badly named entry becomes an error entry and the rest go on.
  * The entry count and the bytes actually inflated, per entry and in total, are capped (zip bombs
  * declare small sizes); passing the total cap or the entry count stops the whole archive.
  */
-export async function readZipCatalogue(buf: Buffer, limits: ZipLimits = DEFAULT_ZIP_LIMITS): Promise<ZipCatalogue> {
+export async function readZipCatalogue(
+  buf: Buffer,
+  limits: ZipLimits = DEFAULT_ZIP_LIMITS,
+  opts: { readonly alsoRead?: (name: string) => boolean } = {},
+): Promise<ZipCatalogue> {
   const zip = await open(buf);
   if (zip.entryCount > limits.maxEntries)
     throw new ArchiveError('TOO_MANY_ENTRIES', `archive lists ${zip.entryCount} entries; the limit is ${limits.maxEntries}`);
   const drawings: ZipDrawing[] = [];
+  const files: { name: string; data: Buffer }[] = [];
   const ignored: string[] = [];
   let total = 0;
   try {
@@ -96,7 +104,8 @@ export async function readZipCatalogue(buf: Buffer, limits: ZipLimits = DEFAULT_
           drawings.push({ name, error: 'nested archive refused: unpack it into the catalogue instead' });
           return next();
         }
-        if (!/\.dxf$/i.test(name)) {
+        const extra = !/\.dxf$/i.test(name) && (opts.alsoRead?.(name) ?? false);
+        if (!/\.dxf$/i.test(name) && !extra) {
           ignored.push(name);
           return next();
         }
@@ -109,7 +118,7 @@ export async function readZipCatalogue(buf: Buffer, limits: ZipLimits = DEFAULT_
               drawings.push({ name, error: `inflates to more than ${limits.maxEntryBytes} bytes` });
             } else {
               total += data.length;
-              drawings.push({ name, data });
+              (extra ? files : drawings).push({ name, data });
             }
             next();
           },
@@ -124,5 +133,5 @@ export async function readZipCatalogue(buf: Buffer, limits: ZipLimits = DEFAULT_
   } finally {
     zip.close();
   }
-  return { drawings, ignored };
+  return { drawings, files, ignored };
 }

@@ -18,6 +18,20 @@ export interface SectionOptions {
   readonly drawingUnits?: LengthUnit;
 }
 
+/**
+ * A fault of one drawing reported by a computation that runs elsewhere (a service's worker thread):
+ * code and one-line message as `drawingFault` gives them, recorded against that profile.
+ */
+export class SectionFault extends Error {
+  override readonly name = 'SectionFault';
+  constructor(
+    readonly code: string,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
 /** Computes one drawing the way `computeDrawing` does, keeping the outline for the report. */
 export type ComputeSection = (bytes: Uint8Array, opts: SectionOptions) => Promise<Section>;
 

@@ -1,13 +1,13 @@
 export { VerifyError, VERIFY_ERROR_CODES, type VerifyErrorCode } from './errors';
 export { KEY_DIMENSION, KEY_LABEL, VERIFY_KEYS, isVerifyKey, keyFactor, keyUnit, type VerifyKey } from './keys';
-export { MATERIALS, materialSchema, materialTable, type Material, type MaterialInput } from './materials';
+export { MATERIALS, materialSchema, materialTable, parseMaterials, type Material, type MaterialInput } from './materials';
 export { massPerMetre } from './mass';
 export { DEFAULT_TOLERANCES, POSITION_KEYS, allowance, defaultTolerance, formatTolerance, parseTolerance, type Tolerance } from './tolerance';
 export { csvText, parseCsv, type CsvRecord } from './csv';
 export { manifestSchema, parseManifest, type Manifest, type ManifestOptions, type ManifestRow } from './manifest';
 export { sha256 } from './hash';
 export { outlineOf, type Outline } from './outline';
-export { computeSection, type ComputeSection, type Section, type SectionOptions } from './compute';
+export { SectionFault, computeSection, type ComputeSection, type Section, type SectionOptions } from './compute';
 export { checkRow, toleranceFor, type Check } from './check';
 export { newRunId, runPassed, summarise, type Fault, type ProfileResult, type ProfileStatus, type RunRecord, type RunSummary } from './run';
 export { cataloguePath } from './paths';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { VerifyError } from './errors';
 
 /** A material of the manifest's `material` column: what mass per metre and stiffness follow from. */
 export interface Material {
@@ -52,4 +53,20 @@ export function materialTable(custom: Readonly<Record<string, MaterialInput>> = 
   const out: Record<string, Material> = { ...MATERIALS };
   for (const [id, m] of Object.entries(custom)) out[id] = { name: m.name ?? id, density: m.density, E: m.E, G: m.G, source: m.source ?? 'custom' };
   return out;
+}
+
+/** A materials file, `{ "<id>": { "density": …, "E": …, "G": … }, … }`, checked against the schema. */
+export function parseMaterials(text: string, source: string): Record<string, MaterialInput> {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    throw new VerifyError('MANIFEST_SYNTAX', `${source}: not valid JSON (${(e as Error).message})`);
+  }
+  const parsed = z.record(z.string(), materialSchema).safeParse(json);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0]!;
+    throw new VerifyError('MANIFEST_INVALID', `${source}: ${issue.path.join('.') || 'file'}: ${issue.message}`);
+  }
+  return parsed.data;
 }

@@ -1,7 +1,7 @@
 import type { LengthUnit } from '@keelson/geometry';
 import { drawingFault } from '@keelson/profile';
 import { checkRow } from './check';
-import { computeSection, type ComputeSection, type Section } from './compute';
+import { SectionFault, computeSection, type ComputeSection, type Section } from './compute';
 import { sha256 } from './hash';
 import type { VerifyKey } from './keys';
 import type { Manifest, ManifestRow } from './manifest';
@@ -44,6 +44,7 @@ export interface VerifyOptions {
 type Computed = { section: Section; reused: false } | { values: Partial<Record<VerifyKey, number>>; accuracy: Partial<Record<VerifyKey, number>>; result: ProfileResult; reused: true };
 
 function faultOf(e: unknown, file: string): Fault {
+  if (e instanceof SectionFault) return { code: e.code, message: e.message };
   const f = drawingFault(e, file);
   if (f) return f;
   // A bug must not sink a nightly run of hundreds of drawings: recorded against this profile alone.

@@ -7,6 +7,9 @@ import { serveCommand } from './serve-command';
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   try {
     if (argv[0] === 'serve') return await serveCommand(argv.slice(1), io);
+    // Loaded on demand, like the server: `keelson props` never pays for the verification modules.
+    if (argv[0] === 'verify') return await (await import('./verify-command')).verifyCommand(argv.slice(1), io);
+    if (argv[0] === 'diff') return await (await import('./diff-command')).diffCommand(argv.slice(1), io);
     const args = parseArgs(argv);
     if (args.command === 'help') {
       io.out(`${USAGE}\n`);
