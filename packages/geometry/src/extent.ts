@@ -112,11 +112,14 @@ export function loopBox(loop: Loop): Box {
 }
 
 export function regionBox(region: Region): Box {
-  const boxes = region.parts.map((p) => loopBox(p.outer));
-  return {
-    xmin: Math.min(...boxes.map((b) => b.xmin)),
-    xmax: Math.max(...boxes.map((b) => b.xmax)),
-    ymin: Math.min(...boxes.map((b) => b.ymin)),
-    ymax: Math.max(...boxes.map((b) => b.ymax)),
-  };
+  // A loop, not Math.min(...boxes): spreading 120,000 parts overflows the call stack.
+  const box = { xmin: Infinity, xmax: -Infinity, ymin: Infinity, ymax: -Infinity };
+  for (const p of region.parts) {
+    const b = loopBox(p.outer);
+    box.xmin = Math.min(box.xmin, b.xmin);
+    box.xmax = Math.max(box.xmax, b.xmax);
+    box.ymin = Math.min(box.ymin, b.ymin);
+    box.ymax = Math.max(box.ymax, b.ymax);
+  }
+  return box;
 }

@@ -107,9 +107,10 @@ function boundingSize(s: Segment): [number, number] {
   const b = endPoint(s);
   if (s.kind === 'ellipse') return [Math.hypot(s.u.x, s.u.y), Math.hypot(s.v.x, s.v.y)];
   if (s.kind === 'spline') {
-    const xs = s.controls.map((c) => c.x);
-    const ys = s.controls.map((c) => c.y);
-    return [Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys)];
+    // A loop, not Math.max(...xs): spreading 120,000 control points overflows the call stack.
+    let [x0, x1, y0, y1] = [Infinity, -Infinity, Infinity, -Infinity];
+    for (const c of s.controls) [x0, x1, y0, y1] = [Math.min(x0, c.x), Math.max(x1, c.x), Math.min(y0, c.y), Math.max(y1, c.y)];
+    return [x1 - x0, y1 - y0];
   }
   return [Math.abs(b.x - a.x), Math.abs(b.y - a.y)];
 }

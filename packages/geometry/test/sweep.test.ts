@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { findCrossings, line, nestLoops, type Loop, type Point } from '../src';
+import { findCrossings, line, nestLoops, regionBox, segmentLength, type Loop, type Point } from '../src';
 import { overlappingBoxes } from '../src/sweep';
 
 const P = (x: number, y: number): Point => ({ x, y });
@@ -34,5 +34,18 @@ describe('a column of 20,000 squares', () => {
     expect(nestLoops(loops).parts).toHaveLength(20_000);
     // Quadratic took over a minute; near-linear takes well under a second (generous for a shared CI box).
     expect(performance.now() - t0).toBeLessThan(10_000);
+  });
+});
+
+// Issue 3 (DXF import): an array INSERT can make more parts than Math.min(...array) can spread.
+describe('200,000 parts', () => {
+  it('regionBox and the spline box of segmentLength take them without overflowing the stack', () => {
+    const parts = Array.from({ length: 200_000 }, (_, i) => ({ outer: square(2 * i, 0, 1), holes: [] }));
+    expect(regionBox({ parts })).toEqual({ xmin: 0, xmax: 399_999, ymin: 0, ymax: 1 });
+    const n = 200_000;
+    const controls = Array.from({ length: n }, (_, i) => ({ x: i, y: 0, w: 1 }));
+    const knots = [0, ...Array.from({ length: n }, (_, i) => i / (n - 1)), 1];
+    // A degree-1 spline along the x axis: its length is the span of its control points — common practice.
+    expect(segmentLength({ kind: 'spline', degree: 1, knots, controls })).toBeCloseTo(n - 1, 3);
   });
 });

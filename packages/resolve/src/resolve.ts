@@ -70,7 +70,8 @@ export function resolveLoops(input: readonly Loop[], tol: number): Resolution {
 
   const comp = components(loops.length, crossings.map((c) => c.loops));
   const box = loops.map((l) => loopBox(l));
-  const extent = Math.max(...box.map((b) => Math.max(b.xmax - b.xmin, b.ymax - b.ymin)));
+  // A reduction, not Math.max(...box): spreading 120,000 loops overflows the call stack.
+  const extent = box.reduce((m, b) => Math.max(m, b.xmax - b.xmin, b.ymax - b.ymin), 0);
   const chord = Math.max(tol, 1e-7 * extent);
   const kept: Loop[] = [];
   const groups = new Map<number, number[]>();
