@@ -4,7 +4,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createInterface } from 'node:readline';
 import { afterAll, describe, expect, it } from 'vitest';
+import { yieldCpu } from '../services/api/test/helpers';
 
+yieldCpu();
 const root = join(import.meta.dirname, '..');
 const main = join(root, 'services/cli/src/main.ts');
 const dataDir = mkdtempSync(join(tmpdir(), 'keelson-serve-'));
