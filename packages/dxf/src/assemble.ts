@@ -150,7 +150,7 @@ function hatchLoops(leaves: readonly Leaf[], ctx: AssembleContext, warnings: str
       const e = stitchError(st.fault, ctx, tol, 'boundary path has no segments');
       throw new DxfError(e.code, ctx.file, `${entityLabel(p.leaf.src)} boundary path ${p.index}: ${e.detail}`);
     }
-    loops.push(...st.loops);
+    for (const l of st.loops) loops.push(l);
     gap = Math.max(gap, st.largestGap > 1e-12 * extent ? st.largestGap : 0);
   }
   if (!loops.length) throw new DxfError('NO_CLOSED_OUTLINE', ctx.file, `no closed outline: the HATCH entities have no boundary paths${ctx.notRead ? `; not read: ${ctx.notRead}` : ''}`);
@@ -162,30 +162,29 @@ function hatchLoops(leaves: readonly Leaf[], ctx: AssembleContext, warnings: str
  * One profile's region from its entities: outlines when there are any (hatches are then fills of
  * those outlines and left out), otherwise the hatches' boundary paths. Loops that cross or overlap
  * are united (clipper-lib behind `resolveLoops`); curves the union cut are flattened and the
- * flattening bound joins the closed gaps in `deviation`.
+ * flattening bound joins the closed gaps in `deviation`. Faults of the geometry core (a degenerate
+ * loop, a transform that collapses a curve) and of the union come out as DxfErrors.
  */
 export function assemble(leaves: readonly Leaf[], ctx: AssembleContext): Assembled {
-  const warnings: string[] = [];
-  const outlines = leaves.filter((l) => l.rec.type !== 'HATCH');
-  const hatches = leaves.filter((l) => l.rec.type === 'HATCH');
-  if (outlines.length && hatches.length) warnings.push(`ignored ${hatches.length} HATCH: the drawing has outlines, which the hatches fill`);
-  const { loops, gap, extent } = outlines.length || !hatches.length ? outlineLoops(outlines, ctx, warnings) : hatchLoops(hatches, ctx, warnings);
-
-  ctx.limits.check();
-  let resolved;
   try {
-    resolved = resolveLoops(loops, RESOLVE_TOLERANCE * extent);
+    return assembleLoops(leaves, ctx);
   } catch (e) {
     if (e instanceof ResolveError) throw new DxfError('CROSSING_OUTLINE', ctx.file, e.message);
     if (e instanceof GeometryError) throw new DxfError('INVALID_GEOMETRY', ctx.file, e.message);
     throw e;
   }
+}
+
+function assembleLoops(leaves: readonly Leaf[], ctx: AssembleContext): Assembled {
+  const warnings: string[] = [];
+  const outlines = leaves.filter((l) => l.rec.type !== 'HATCH');
+  const hatches = leaves.filter((l) => l.rec.type === 'HATCH');
+  if (outlines.length && hatches.length) warnings.push(`ignored ${hatches.length} HATCH: the drawing has outlines, which the hatches fill`);
+  const { loops, gap, extent } = outlines.length || !hatches.length ? outlineLoops(outlines, ctx, warnings) : hatchLoops(hatches, ctx, warnings);
+  ctx.limits.check();
+  const resolved = resolveLoops(loops, RESOLVE_TOLERANCE * extent);
   warnings.push(...resolved.notes);
   const flat = resolved.flattening;
   if (flat) warnings.push(`${flat.loops} united outline(s) cut curves: flattened within ${fmtLength(flat.maxDeviation, ctx.unit)}`);
-  return {
-    region: resolved.region,
-    warnings,
-    deviation: Math.max(gap, flat?.maxDeviation ?? 0),
-  };
+  return { region: resolved.region, warnings, deviation: Math.max(gap, flat?.maxDeviation ?? 0) };
 }

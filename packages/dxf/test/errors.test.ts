@@ -86,6 +86,12 @@ describe('bad input gives a DxfError with a stable code and one line naming the 
     expect(await fault(dxf(rectLines(1e6, 0, 1e-10, 1e-10)))).toMatchObject({ code: 'INVALID_GEOMETRY', message: /too small to compute/ });
   });
 
+  it('INVALID_GEOMETRY: a fault of the geometry core comes out as a DxfError (a block scaled to nothing)', async () => {
+    const block: Tag[] = [[0, 'SECTION'], [2, 'BLOCKS'], [0, 'BLOCK'], [2, 'DOT'], [10, 0], [20, 0], ...CIRCLE([0, 0], 1), [0, 'ENDBLK'], [0, 'ENDSEC']];
+    const insert: Tag[] = [[0, 'INSERT'], [8, '0'], [2, 'DOT'], [10, 0], [20, 0], [41, 1e-200], [42, 1e-200]];
+    expect(await fault(dxf([insert], { before: block }))).toMatchObject({ code: 'INVALID_GEOMETRY', message: /transform collapses an arc/ });
+  });
+
   it('UNSUPPORTED_ENTITY: a SPLINE of fit points only', async () => {
     const fit: Tag[] = [[0, 'SPLINE'], [5, 'F1'], [8, '0'], [70, 8], [71, 3], [74, 3], [11, 0], [21, 0], [31, 0], [11, 5], [21, 5], [31, 0], [11, 10], [21, 0], [31, 0]];
     expect(await fault(dxf([fit, ...rectLines(0, 0, 1, 1)]))).toMatchObject({ code: 'UNSUPPORTED_ENTITY', message: /SPLINE \(handle F1.*defined by 3 fit points only/ });
