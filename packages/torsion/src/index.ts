@@ -1,7 +1,7 @@
 export { torsionProperties, meshRegion, baseMesh, meshParams, type TorsionOptions, type TorsionProperties } from './torsion';
 export { meshSvg, type MeshSvgOptions } from './svg';
 export { generateMesh, type MeshParams, type TriMesh } from './mesh';
-export { quadratic, refine, prolong, edgesOf, type QuadMesh, type Level, type Edges } from './levels';
+export { quadratic, refine, edgesOf, type QuadMesh, type Level, type Edges } from './levels';
 export { solveWarping, type LevelResult } from './warping';
 export { frameOf, curvesOf, type Frame, type Curve } from './frame';
 export {
@@ -18,5 +18,5 @@ export {
   type SolveReport,
 } from './sparse';
 export { TorsionError, type TorsionErrorCode } from './errors';
-export { EnvelopeCholesky, Multigrid, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
+export { EnvelopeCholesky, Multigrid, interpolate, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
 export { assemble, finish, solveAssembled, type Assembly } from './warping';

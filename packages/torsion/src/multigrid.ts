@@ -72,18 +72,34 @@ export class EnvelopeCholesky {
   }
 }
 
-/** Rows of P hold the weights of coarse nodes in each fine node: fine = P·coarse. */
-function csrFromRows(rows: number[][], vals: number[][], nc: number): Csr {
-  const n = rows.length;
-  const rowPtr = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) rowPtr[i + 1] = rowPtr[i]! + rows[i]!.length;
-  const col = new Int32Array(rowPtr[n]!);
-  const val = new Float64Array(rowPtr[n]!);
-  for (let i = 0; i < n; i++) {
-    col.set(rows[i]!, rowPtr[i]!);
-    val.set(vals[i]!, rowPtr[i]!);
-  }
-  return { n: nc, rowPtr, col, val };
+/** Barycentric coordinates of the corners of the four children of a triangle (order as in `refine`). */
+const CHILD = [
+  [1, 0, 0], [0.5, 0.5, 0], [0.5, 0, 0.5],
+  [0.5, 0.5, 0], [0, 1, 0], [0, 0.5, 0.5],
+  [0.5, 0, 0.5], [0, 0.5, 0.5], [0, 0, 1],
+  [0.5, 0.5, 0], [0, 0.5, 0.5], [0.5, 0, 0.5],
+];
+
+/**
+ * Weights of the 12 child edge nodes (4 children × 3 edges) on the parent's six nodes, nonzero
+ * ones only: node EDGE_NODE[EDGE_START[m] + q] with weight EDGE_W[…], q < EDGE_START[m + 1] − EDGE_START[m].
+ */
+const EDGE_START = new Int32Array(13);
+const EDGE_NODE: number[] = [];
+const EDGE_W: number[] = [];
+for (let m = 0; m < 12; m++) {
+  const c = (m / 3) | 0;
+  const a = CHILD[3 * c + (m % 3)]!;
+  const b = CHILD[3 * c + ((m + 1) % 3)]!;
+  const l = [(a[0]! + b[0]!) / 2, (a[1]! + b[1]!) / 2, (a[2]! + b[2]!) / 2] as const;
+  const w = [l[0] * (2 * l[0] - 1), l[1] * (2 * l[1] - 1), l[2] * (2 * l[2] - 1), 4 * l[0] * l[1], 4 * l[1] * l[2], 4 * l[2] * l[0]];
+  w.forEach((v, k) => {
+    if (v !== 0) {
+      EDGE_NODE.push(k);
+      EDGE_W.push(v);
+    }
+  });
+  EDGE_START[m + 1] = EDGE_NODE.length;
 }
 
 /**
@@ -93,74 +109,68 @@ function csrFromRows(rows: number[][], vals: number[][], nc: number): Csr {
 export function quadraticTransfer(coarse: Level, fine: Level): Csr {
   const nc = coarse.quad.x.length;
   const nf = fine.quad.x.length;
-  // Corner rows hold one weight, edge-node rows up to six: fixed slots, compacted at the end.
-  const cnt = new Int32Array(nf);
-  const slotC = new Int32Array(6 * nf);
-  const slotV = new Float64Array(6 * nf);
-  for (let i = 0; i < nc; i++) {
-    cnt[i] = 1;
-    slotC[6 * i] = i;
-    slotV[6 * i] = 1;
-  }
-  const B = [
-    [1, 0, 0], [0.5, 0.5, 0], [0.5, 0, 0.5],
-    [0.5, 0.5, 0], [0, 1, 0], [0, 0.5, 0.5],
-    [0.5, 0, 0.5], [0, 0.5, 0.5], [0, 0, 1],
-    [0.5, 0.5, 0], [0, 0.5, 0.5], [0.5, 0, 0.5],
-  ];
-  // Weights of the 12 child edge nodes (4 children × 3 edges) on the parent's 6 nodes.
-  const W: number[][] = [];
-  for (let c = 0; c < 4; c++)
-    for (let i = 0; i < 3; i++) {
-      const a = B[3 * c + i]!;
-      const b = B[3 * c + ((i + 1) % 3)]!;
-      const l = [(a[0]! + b[0]!) / 2, (a[1]! + b[1]!) / 2, (a[2]! + b[2]!) / 2] as const;
-      W.push([l[0] * (2 * l[0] - 1), l[1] * (2 * l[1] - 1), l[2] * (2 * l[2] - 1), 4 * l[0] * l[1], 4 * l[1] * l[2], 4 * l[2] * l[0]]);
-    }
   const cel = coarse.quad.el;
   const fel = fine.quad.el;
-  for (let t = 0; t < cel.length / 6; t++)
-    for (let c = 0; c < 4; c++)
-      for (let i = 0; i < 3; i++) {
-        const node = fel[6 * (4 * t + c) + 3 + i]!;
-        if (cnt[node]! > 0) continue;
-        const w = W[3 * c + i]!;
-        let q = 0;
-        for (let k = 0; k < 6; k++)
-          if (w[k] !== 0) {
-            slotC[6 * node + q] = cel[6 * t + k]!;
-            slotV[6 * node + q] = w[k]!;
-            q++;
-          }
-        cnt[node] = q;
-      }
+  const nt = cel.length / 6;
+  // Row lengths: one for a corner, the weights' count for an edge node (from its first parent).
   const rowPtr = new Int32Array(nf + 1);
-  for (let i = 0; i < nf; i++) rowPtr[i + 1] = rowPtr[i]! + cnt[i]!;
+  const from = new Int32Array(nf).fill(-1); // 12·parent + child edge that defines the node
+  for (let i = 0; i < nc; i++) rowPtr[i + 1] = 1;
+  for (let t = 0; t < nt; t++)
+    for (let m = 0; m < 12; m++) {
+      const node = fel[6 * (4 * t + ((m / 3) | 0)) + 3 + (m % 3)]!;
+      if (node < nc || from[node]! >= 0) continue;
+      from[node] = 12 * t + m;
+      rowPtr[node + 1] = EDGE_START[m + 1]! - EDGE_START[m]!;
+    }
+  for (let i = 0; i < nf; i++) rowPtr[i + 1]! += rowPtr[i]!;
   const col = new Int32Array(rowPtr[nf]!);
   const val = new Float64Array(rowPtr[nf]!);
-  for (let i = 0; i < nf; i++)
-    for (let q = 0; q < cnt[i]!; q++) {
-      col[rowPtr[i]! + q] = slotC[6 * i + q]!;
-      val[rowPtr[i]! + q] = slotV[6 * i + q]!;
+  for (let i = 0; i < nc; i++) {
+    col[rowPtr[i]!] = i;
+    val[rowPtr[i]!] = 1;
+  }
+  for (let i = nc; i < nf; i++) {
+    const t = (from[i]! / 12) | 0;
+    const m = from[i]! - 12 * t;
+    for (let q = EDGE_START[m]!, p = rowPtr[i]!; q < EDGE_START[m + 1]!; q++, p++) {
+      col[p] = cel[6 * t + EDGE_NODE[q]!]!;
+      val[p] = EDGE_W[q]!;
     }
+  }
   return { n: nc, rowPtr, col, val };
+}
+
+/** P·u for a prolongation P (one row per fine node; P.n counts the coarse ones). */
+export function interpolate(P: Csr, u: Float64Array): Float64Array {
+  const nf = P.rowPtr.length - 1;
+  const out = new Float64Array(nf);
+  for (let i = 0; i < nf; i++) {
+    let s = 0;
+    const e = P.rowPtr[i + 1]!;
+    for (let k = P.rowPtr[i]!; k < e; k++) s += P.val[k]! * u[P.col[k]!]!;
+    out[i] = s;
+  }
+  return out;
 }
 
 /** Prolongation from linear to quadratic elements on the same triangulation (edge node = mean of its ends). */
 export function linearTransfer(L: Level): Csr {
   const nv = L.quad.corners;
   const nn = L.quad.x.length;
-  const rows: number[][] = new Array(nn);
-  const vals: number[][] = new Array(nn);
+  const rowPtr = new Int32Array(nn + 1);
+  for (let i = 0; i < nn; i++) rowPtr[i + 1] = rowPtr[i]! + (i < nv ? 1 : 2);
+  const col = new Int32Array(rowPtr[nn]!);
+  const val = new Float64Array(rowPtr[nn]!).fill(0.5);
   for (let i = 0; i < nv; i++) {
-    rows[i] = [i];
-    vals[i] = [1];
+    col[i] = i;
+    val[i] = 1;
   }
-  for (let e = 0; e < L.edges.ea.length; e++) {
-    rows[nv + e] = [L.edges.ea[e]!, L.edges.eb[e]!];
-    vals[nv + e] = [0.5, 0.5];
+  for (let e = 0; e < nn - nv; e++) {
+    col[nv + 2 * e] = L.edges.ea[e]!;
+    col[nv + 2 * e + 1] = L.edges.eb[e]!;
   }
-  return csrFromRows(rows, vals, nv);
+  return { n: nv, rowPtr, col, val };
 }
 
 /** Cotangent form of the linear triangle: pair p = (a, a+1) contributes E_ab + E_ba − E_aa − E_bb. */

@@ -39,22 +39,30 @@ export function assembleRows(
 ): Csr {
   const [S0, S1, S2] = S;
   const pp = per * per;
-  // Slots of each node's (element, local index) pairs, by counting sort.
+  const ne = el.length / per;
+  // Each node's (element, local index) pairs, by counting sort.
   const start = new Int32Array(n + 1);
   for (let k = 0; k < el.length; k++) start[el[k]! + 1]!++;
   for (let i = 0; i < n; i++) start[i + 1]! += start[i]!;
-  const slot = new Int32Array(el.length);
+  const slotE = new Int32Array(el.length);
+  const slotL = new Uint8Array(el.length);
   const fill = start.slice(0, n);
-  for (let k = 0; k < el.length; k++) slot[fill[el[k]!]!++] = k;
+  for (let e = 0, k = 0; e < ne; e++)
+    for (let l = 0; l < per; l++, k++) {
+      const s = fill[el[k]!]!++;
+      slotE[s] = e;
+      slotL[s] = l;
+    }
   // Columns of each row: counted first, so the arrays are allocated once at their size.
   const mark = new Int32Array(n).fill(-1);
   const rowPtr = new Int32Array(n + 1);
   for (let i = 0; i < n; i++) {
     let c = 0;
-    for (let s = start[i]!; s < start[i + 1]!; s++) {
-      const e = (slot[s]! / per) | 0;
+    const s1 = start[i + 1]!;
+    for (let s = start[i]!; s < s1; s++) {
+      const o = slotE[s]! * per;
       for (let j = 0; j < per; j++) {
-        const col = el[e * per + j]!;
+        const col = el[o + j]!;
         if (mark[col] !== i) {
           mark[col] = i;
           c++;
@@ -70,10 +78,10 @@ export function assembleRows(
   for (let i = 0; i < n; i++) {
     const r0 = rowPtr[i]!;
     let p = r0;
-    for (let s = start[i]!; s < start[i + 1]!; s++) {
-      const k = slot[s]!;
-      const e = (k / per) | 0;
-      const row = (k - e * per) * per;
+    const s1 = start[i + 1]!;
+    for (let s = start[i]!; s < s1; s++) {
+      const e = slotE[s]!;
+      const row = slotL[s]! * per;
       const o = own ? own[e]! : -1;
       const g0 = g[3 * e]!;
       const g1 = g[3 * e + 1]!;
@@ -209,16 +217,22 @@ export function permute(A: Csr, perm: Int32Array): Csr {
   for (let i = 0; i < n; i++) rowPtr[i + 1] = rowPtr[i]! + (A.rowPtr[perm[i]! + 1]! - A.rowPtr[perm[i]!]!);
   const col = new Int32Array(A.col.length);
   const val = new Float64Array(A.col.length);
-  const tmp: [number, number][] = [];
   for (let i = 0; i < n; i++) {
     const o = perm[i]!;
-    tmp.length = 0;
-    for (let k = A.rowPtr[o]!; k < A.rowPtr[o + 1]!; k++) tmp.push([inv[A.col[k]!]!, A.val[k]!]);
-    tmp.sort((a, b) => a[0] - b[0]);
-    let p = rowPtr[i]!;
-    for (const [c, v] of tmp) {
-      col[p] = c;
-      val[p++] = v;
+    const r0 = rowPtr[i]!;
+    let p = r0;
+    for (let k = A.rowPtr[o]!; k < A.rowPtr[o + 1]!; k++, p++) {
+      // Insertion into the sorted row (rows are short).
+      const c = inv[A.col[k]!]!;
+      const v = A.val[k]!;
+      let q = p;
+      while (q > r0 && col[q - 1]! > c) {
+        col[q] = col[q - 1]!;
+        val[q] = val[q - 1]!;
+        q--;
+      }
+      col[q] = c;
+      val[q] = v;
     }
   }
   return { n, rowPtr, col, val };

@@ -1,8 +1,8 @@
 import type { Region } from '@keelson/geometry';
 import { TorsionError } from './errors';
 import { curvesOf, frameOf, type Frame } from './frame';
-import { prolong, quadratic, refine, type Level, type QuadMesh } from './levels';
-import { EnvelopeCholesky, Multigrid, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
+import { quadratic, refine, type Level, type QuadMesh } from './levels';
+import { EnvelopeCholesky, Multigrid, interpolate, linearStiffness, linearTransfer, quadraticTransfer } from './multigrid';
 import { generateMesh, type MeshParams, type TriMesh } from './mesh';
 import { assemble, finish, solveAssembled, type LevelResult } from './warping';
 
@@ -125,9 +125,11 @@ export function torsionProperties(region: Region, opts: TorsionOptions = {}): To
     const last = levels[levels.length - 1]!;
     if (4 * last.quad.x.length > maxNodes) break;
     const fine = quadratic(refine(last));
-    const guess = prolong(last, fine, results[results.length - 1]!.omega);
+    // The transfer of the multigrid cycle also carries the coarse solution up as the first guess.
+    const P = quadraticTransfer(last, fine);
+    const guess = interpolate(P, results[results.length - 1]!.omega);
     const asm = assemble(fine.quad);
-    mg.push(asm.K, asm.held, quadraticTransfer(last, fine));
+    mg.push(asm.K, asm.held, P);
     levels.push(fine);
     results.push(solve(fine, asm, guess));
     est = estimate(results, pTheory, frame);
