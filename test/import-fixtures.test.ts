@@ -237,12 +237,14 @@ describe('closed forms from the import fixtures (relative 1e-9)', () => {
     await expect(read('hole-on-other-layer', { hiddenLayers: true })).rejects.toMatchObject({ code: 'OPEN_OUTLINE' });
   });
 
-  it('hatch-only solids: polyline path with bulges and clockwise arc edges read like the same outlines', async () => {
-    const { w, h, rc, r } = HATCH_PLATE;
+  it('hatch-only solid: polyline path with bulges, and a clockwise arc edge on the side its negated angles say', async () => {
+    const { w, h, rc, r, c } = HATCH_PLATE;
     const { p, d } = await read('hatch-rounded-plate');
-    // Rounded rectangle wh − (4 − π)rc² — common practice — minus the hole πr².
-    close(p.A, w * h - (4 - PI) * rc * rc - PI * r * r);
-    close(p.cx, w / 2);
+    // Rounded rectangle wh − (4 − π)rc² — common practice — minus the half disc πr²/2 right of x = c.x,
+    // its centroid 4r/3π from the diameter — Gere, Appendix D.
+    const [plate, hole] = [w * h - (4 - PI) * rc * rc, (PI * r * r) / 2];
+    close(p.A, plate - hole);
+    close(p.cx, (plate * (w / 2) - hole * (c.x + (4 * r) / (3 * PI))) / (plate - hole));
     close(p.cy, h / 2);
     expect(d.warnings.join()).toMatch(/solid read from the boundaries of 1 HATCH/);
   });
