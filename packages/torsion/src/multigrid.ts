@@ -224,7 +224,8 @@ export function holdRows(K: Csr, held: Uint8Array): void {
 
 export interface GridLevel {
   readonly K: Csr;
-  readonly diag: Float64Array;
+  /** Reciprocal of each row's diagonal entry (a product in the sweeps, not a division). */
+  readonly inv: Float64Array;
   /** Position of each row's diagonal entry (columns ascend: the lower part lies before it). */
   readonly dpos: Int32Array;
   readonly held: Uint8Array;
@@ -252,15 +253,15 @@ export class Multigrid {
   ) {}
 
   push(K: Csr, held: Uint8Array, P: Csr): void {
-    const diag = new Float64Array(K.n);
+    const inv = new Float64Array(K.n);
     const dpos = new Int32Array(K.n);
     for (let i = 0; i < K.n; i++) {
       let k = K.rowPtr[i]!;
       while (K.col[k] !== i) k++;
       dpos[i] = k;
-      diag[i] = K.val[k]!;
+      inv[i] = 1 / K.val[k]!;
     }
-    this.levels.push({ K, diag, dpos, held, P });
+    this.levels.push({ K, inv, dpos, held, P });
     const nc = this.levels.length > 1 ? this.levels[this.levels.length - 2]!.K.n : this.coarseSize;
     this.scratch.push([new Float64Array(K.n), new Float64Array(nc), new Float64Array(nc)]);
   }
@@ -276,7 +277,7 @@ export class Multigrid {
       for (let i = 0; i < x.length; i++) if (this.coarseHeld[i]) x[i] = 0;
       return;
     }
-    const { K, diag, dpos, P } = this.levels[l]!;
+    const { K, inv, dpos, P } = this.levels[l]!;
     const { rowPtr, col, val } = K;
     const n = K.n;
     const [res, bc, xc] = this.scratch[l]!;
@@ -288,7 +289,7 @@ export class Multigrid {
       let s = b[i]!;
       const d = dpos[i]!;
       for (let k = rowPtr[i]!; k < d; k++) s -= val[k]! * x[col[k]!]!;
-      x[i] = s / diag[i]!;
+      x[i] = s * inv[i]!;
     }
     for (let i = 0; i < n; i++) {
       let s = 0;
@@ -317,7 +318,7 @@ export class Multigrid {
       let s = b[i]!;
       const e = rowPtr[i + 1]!;
       for (let k = rowPtr[i]!; k < e; k++) s -= val[k]! * x[col[k]!]!;
-      x[i]! += s / diag[i]!;
+      x[i]! += s * inv[i]!;
     }
   }
 }
