@@ -86,7 +86,7 @@ function placement(s: DxfStructure, rec: EntityRecord, src: EntitySource, file: 
   if (!ocs) f.fail('INVALID_ENTITY', `not drawn in the xy-plane (extrusion direction ${n.x}, ${n.y}, ${n.z})`);
   const [c, sn] = [Math.cos(rot), Math.sin(rot)];
   const copies: Affine[] = [];
-  // Only counted here; the caller has checked rows × columns against the budget.
+  // rows × columns was checked against the segment budget before any block was expanded.
   for (let i = 0; i < rows; i++)
     for (let j = 0; j < cols; j++) {
       const ox = j * dc - sx * base.x;
@@ -125,7 +125,8 @@ function expandedSize(s: DxfStructure, file: string): number {
         continue;
       }
       const k = new Fields(s.tags, e.at, e.end, e, file).find(2);
-      n += arrayCount(s, e) * blockCost(k >= 0 ? s.tags.value(k).toUpperCase() : '');
+      // Each copy costs at least one unit: an array of an empty block still has to be walked.
+      n += arrayCount(s, e) * Math.max(1, blockCost(k >= 0 ? s.tags.value(k).toUpperCase() : ''));
     }
     return n;
   };

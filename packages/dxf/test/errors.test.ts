@@ -107,6 +107,11 @@ describe('bad input gives a DxfError with a stable code and one line naming the 
     const big = blocks(def('SQ', rectLines(0, 0, 1, 1)));
     const array = insert('SQ', [[70, 1000], [71, 1000], [44, 2], [45, 2]]);
     expect(await fault(dxf([array], { before: big }))).toMatchObject({ code: 'TOO_COMPLEX', message: /expands to about 4\.0e\+6 segments/ });
+    // An array of an empty block costs its copies, not nothing.
+    const empty = blocks(def('NONE', []));
+    const t0 = Date.now();
+    expect((await fault(dxf([insert('NONE', [[70, 30000], [71, 30000]])], { before: empty }))).code).toBe('TOO_COMPLEX');
+    expect(Date.now() - t0).toBeLessThan(1000);
   });
 
   it('PARSE_TIMEOUT: reading stops at its time limit, checked between entities', async () => {
