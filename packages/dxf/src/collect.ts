@@ -43,13 +43,24 @@ const MAX_DEPTH = 64;
 
 const bump = (m: Map<string, number>, k: string, n = 1) => m.set(k, (m.get(k) ?? 0) + n);
 
-/** Rough segment count of one entity: what its expansion costs. */
+/**
+ * Rough cost of one entity in segments: its vertices or control points. A spline's span costs
+ * (degree + 1)² basis products per quadrature point, against 16 for a cubic, and a rational one
+ * is integrated adaptively (about four times the points).
+ */
 function weight(s: DxfStructure, rec: EntityRecord): number {
   if (rec.type === 'POLYLINE') return rec.children.length;
   if (rec.type !== 'LWPOLYLINE' && rec.type !== 'SPLINE' && rec.type !== 'HATCH') return 1;
+  const codes = s.tags.codes;
   let n = 1;
-  for (let k = rec.at + 1; k < rec.end; k++) if (s.tags.codes[k] === 10) n++;
-  return n;
+  let degree = 3;
+  let rational = false;
+  for (let k = rec.at + 1; k < rec.end; k++) {
+    if (codes[k] === 10) n++;
+    else if (rec.type === 'SPLINE' && codes[k] === 71) degree = Number(s.tags.value(k)) || 3;
+    else if (rec.type === 'SPLINE' && codes[k] === 41) rational = true;
+  }
+  return rec.type === 'SPLINE' ? n * Math.max(1, (degree + 1) ** 2 / 16) * (rational ? 4 : 1) : n;
 }
 
 /** The INSERT's placement: block coordinates → the coordinates the INSERT is drawn in. */
