@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_TOLERANCES, VerifyError, parseCsv, parseManifest, parseTolerance, type VerifyErrorCode } from '../src';
+import { DEFAULT_TOLERANCES, VerifyError, parseCsv, parseManifest, parseMaterials, parseTolerance, type VerifyErrorCode } from '../src';
 
 const HEAD = 'id,drawing,revision,material,units';
 
@@ -119,5 +119,13 @@ describe('parseManifest (JSON)', () => {
     expect(fault(() => parseManifest(text, 'm.json')).message).toMatch(/^m\.json: profiles\[0\] \(T1\)\.published\.Ix: /);
     expect(fault(() => parseManifest('{"profiles": [', 'm.json')).code).toBe('MANIFEST_SYNTAX');
     expect(fault(() => parseManifest(JSON.stringify({ profiles: [{ id: 'T', drawing: 'x', material: 'steel', units: 'mm', published: { Q: 1 } }] }), 'm.json')).code).toBe('MANIFEST_INVALID');
+  });
+});
+
+describe('parseMaterials', () => {
+  it('reads a materials file and names what is wrong in one', () => {
+    expect(parseMaterials('{"brass": {"density": 8500, "E": 100000, "G": 37000}}', 'm.json')).toEqual({ brass: { density: 8500, E: 100000, G: 37000 } });
+    expect(fault(() => parseMaterials('{"brass": {"density": -1, "E": 1, "G": 1}}', 'm.json'))).toMatchObject({ code: 'MANIFEST_INVALID', message: expect.stringMatching(/^m\.json: brass\.density: /) });
+    expect(fault(() => parseMaterials('nope', 'm.json')).code).toBe('MANIFEST_SYNTAX');
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { computeSection, parseManifest, runPassed, runVerification, type ComputeSection } from '../src';
+import { SectionFault, computeSection, parseManifest, runPassed, runVerification, type ComputeSection } from '../src';
 import { enc, stub } from './stub';
 
 const catalogue = (files: Record<string, string>) => ({
@@ -55,6 +55,14 @@ describe('runVerification', () => {
     expect(run.profiles[1]!.fault!.message).toMatch(/^bad\.dxf: not a DXF file/);
     expect(run.unlisted.map((u) => u.drawing)).toEqual(['sub/A.dxf', 'extra.dxf']);
     expect(run.summary).toMatchObject({ profiles: 4, pass: 0, error: 2, missing: 2, unlisted: 2 });
+  });
+
+  it('records a fault reported by a computation elsewhere (a service thread) with its code', async () => {
+    const compute: ComputeSection = async (_b, o) => {
+      throw new SectionFault('DRAWING_TIMEOUT', `${o.source}: computing took longer than 60 s`);
+    };
+    const run = await runVerification({ catalogue: catalogue({ 'a.dxf': 'a' }), manifest: manifest('A,a.dxf,,steel,mm,1,\n'), codeVersion: 'v1', compute });
+    expect(run.profiles[0]).toMatchObject({ status: 'error', fault: { code: 'DRAWING_TIMEOUT', message: 'a.dxf: computing took longer than 60 s' } });
   });
 
   it('records an internal fault against its profile alone', async () => {

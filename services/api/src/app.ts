@@ -16,6 +16,7 @@ import { computeRoutes } from './routes/compute';
 import { docsPage, openApiDocument } from './routes/docs';
 import { healthRoutes } from './routes/health';
 import { jobRoutes } from './routes/jobs';
+import { verificationRoutes } from './verify/routes';
 import { openStore, type Store } from './store';
 
 export interface BuildOptions {
@@ -157,6 +158,7 @@ export async function build(opts: BuildOptions = {}): Promise<FastifyInstance> {
   await app.register(healthRoutes(ctx));
   await app.register(computeRoutes(ctx));
   await app.register(jobRoutes(ctx));
+  await app.register(verificationRoutes(ctx));
   app.get('/openapi.json', { config: { public: true, rateLimit: false }, schema: { hide: true } }, async () => openApiDocument(app));
   for (const path of ['/docs', '/docs/errors'])
     app.get(path, { config: { public: true, rateLimit: false }, schema: { hide: true } }, async (_req, reply) => reply.type('text/html; charset=utf-8').send(docsPage()));

@@ -33,6 +33,11 @@ export const ERRORS = {
   SHUTTING_DOWN: { status: 503, title: 'Shutting down', doc: 'The service is stopping; retry on another instance or shortly.' },
   DRAWING_TIMEOUT: { status: 422, title: 'Drawing took too long', doc: 'Computing one drawing passed the per-drawing time limit (`KEELSON_DRAWING_TIMEOUT_MS`); try `torsion=false`.' },
   DRAWING_MEMORY: { status: 422, title: 'Drawing took too much memory', doc: 'Computing one drawing passed the worker thread\'s memory limit.' },
+  FOLDER_NOT_ALLOWED: { status: 403, title: 'Folder not allowed', doc: 'A catalogue folder must lie inside a folder the administrator allowed (`KEELSON_CATALOGUE_FOLDERS`); otherwise upload the catalogue as a ZIP.' },
+  CATALOGUE_NOT_FOUND: { status: 404, title: 'Catalogue not found', doc: 'No catalogue with this id belongs to your tenant.' },
+  RUN_NOT_FOUND: { status: 404, title: 'Run not found', doc: 'No verification run with this id belongs to one of your catalogues (or, for a diff, there is no earlier run to compare with).' },
+  RUN_IN_PROGRESS: { status: 409, title: 'Run in progress', doc: 'A verification of this catalogue is running; one at a time per catalogue. Its result appears in the catalogue\'s runs.' },
+  INVALID_CATALOGUE: { status: 422, title: 'Catalogue cannot be verified', doc: 'The catalogue has no drawings or no manifest, or the manifest is at fault; `detail` names the file, line and column, `reason` the code.' },
 } as const satisfies Record<string, ErrorSpec>;
 
 export type ErrorCode = keyof typeof ERRORS;

@@ -20,6 +20,7 @@ export interface RunHistory {
   latest(key: string): Promise<RunRecord | null>;
   /** The run before `id` of the same catalogue, or null. */
   previous(id: string): Promise<RunRecord | null>;
+  keyOf(id: string): Promise<string>;
   appendDeliveries(id: string, attempts: readonly DeliveryAttempt[]): Promise<void>;
   deliveries(id: string): Promise<DeliveryAttempt[]>;
 }
@@ -40,8 +41,12 @@ export class FileRunHistory implements RunHistory {
   }
 
   private async keys(): Promise<string[]> {
-    const names = await readdir(this.root).catch((e: NodeJS.ErrnoException) => (e.code === 'ENOENT' ? [] : Promise.reject(e)));
-    return names.filter((n) => KEY.test(n)).sort();
+    // Catalogue folders only: the service keeps its registry and uploads beside them.
+    const entries = await readdir(this.root, { withFileTypes: true }).catch((e: NodeJS.ErrnoException) => (e.code === 'ENOENT' ? [] : Promise.reject(e)));
+    return entries
+      .filter((e) => e.isDirectory() && KEY.test(e.name))
+      .map((e) => e.name)
+      .sort();
   }
 
   private async ids(key: string): Promise<string[]> {
@@ -49,7 +54,8 @@ export class FileRunHistory implements RunHistory {
     return names.filter((n) => n.endsWith('.json') && RUN_ID.test(n.slice(0, -5))).map((n) => n.slice(0, -5)).sort();
   }
 
-  private async keyOf(id: string): Promise<string> {
+  /** The catalogue key a run is stored under; SourceError RUN_NOT_FOUND when there is none. */
+  async keyOf(id: string): Promise<string> {
     if (RUN_ID.test(id)) for (const key of await this.keys()) if ((await this.ids(key)).includes(id)) return key;
     throw new SourceError('RUN_NOT_FOUND', id, `no stored run with this id under ${this.root}`);
   }
