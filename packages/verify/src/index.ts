@@ -1,5 +1,5 @@
 export { VerifyError, VERIFY_ERROR_CODES, type VerifyErrorCode } from './errors';
-export { KEY_DIMENSION, KEY_LABEL, VERIFY_KEYS, isVerifyKey, keyFactor, keyUnit, type VerifyKey } from './keys';
+export { KEY_DIMENSION, KEY_LABEL, VERIFY_KEYS, keyFactor, keyUnit, type VerifyKey } from './keys';
 export { MATERIALS, materialSchema, materialTable, parseMaterials, type Material, type MaterialInput } from './materials';
 export { massPerMetre } from './mass';
 export { DEFAULT_TOLERANCES, POSITION_KEYS, allowance, defaultTolerance, formatTolerance, parseTolerance, type Tolerance } from './tolerance';

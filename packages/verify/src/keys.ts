@@ -13,10 +13,6 @@ export const KEY_DIMENSION: Readonly<Record<VerifyKey, number | null>> = { ...PR
 /** All keys in a stable order: mass first (what a datasheet leads with), then the contract's order. */
 export const VERIFY_KEYS = ['m', ...Object.keys(PROPERTY_DIMENSION), ...Object.keys(TORSION_DIMENSION)] as VerifyKey[];
 
-export function isVerifyKey(k: string): k is VerifyKey {
-  return Object.hasOwn(KEY_DIMENSION, k);
-}
-
 /** What each key means, as a report's property table labels it. */
 export const KEY_LABEL: Readonly<Record<VerifyKey, string>> = {
   m: 'Mass per metre',

@@ -1,5 +1,5 @@
 import { stat } from 'node:fs/promises';
-import { VerifyError, diffRuns, significantText, type RunDiff, type RunRecord } from '@keelson/verify';
+import { VerifyError, diffRuns, percent, significantText, type RunDiff, type RunRecord } from '@keelson/verify';
 import { FileRunHistory, SourceError, catalogueKey } from '@keelson/verify-io';
 import { UsageError } from './args';
 import type { Io } from './props-command';
@@ -8,7 +8,7 @@ import { dataDir } from './verify-command';
 export const DIFF_USAGE =
   'usage: keelson diff <run> <run> | keelson diff <run> (against the run before it) | keelson diff <catalogue.zip|folder> (its last two runs) | keelson diff --list [catalogue]   [--json]';
 
-const pct = (r: number | null) => (r === null ? '' : `  (${r >= 0 ? '+' : '−'}${Math.abs(r * 100).toPrecision(2)} %)`);
+const pct = (r: number | null) => (r === null ? '' : `  (${percent(r)})`);
 
 /** The diff as a person reads it: what changed, then each moved value with its units. */
 export function formatDiff(d: RunDiff, catalogue: string): string {

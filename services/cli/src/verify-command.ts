@@ -7,6 +7,7 @@ import {
   diffRuns,
   formatTolerance,
   parseMaterials,
+  percent,
   renderHtmlReport,
   runPassed,
   runVerification,
@@ -77,7 +78,7 @@ function attentionLines(run: RunRecord): string[] {
   for (const p of run.profiles) {
     if (p.fault) lines.push(`  ${p.status.toUpperCase().padEnd(7)} ${p.id}  ${p.fault.message}`);
     for (const c of p.checks.filter((k) => !k.pass)) {
-      const rel = c.relative === null ? '' : `${c.relative >= 0 ? '+' : '−'}${Math.abs(c.relative * 100).toPrecision(2)} %, `;
+      const rel = c.relative === null ? '' : `${percent(c.relative)}, `;
       const computed = c.computed === null ? 'no value' : `${significantText(c.computed)} ${c.unit}`;
       lines.push(`  FAIL    ${p.id}  ${c.key}: computed ${computed}, published ${c.published} (${rel}tolerance ${formatTolerance(c.tolerance, c.unit)})`);
     }
