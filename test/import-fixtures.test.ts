@@ -309,3 +309,57 @@ describe('closed forms from the import fixtures (relative 1e-9)', () => {
     await expect(read('binary-sentinel')).rejects.toMatchObject({ code: 'BINARY_DXF', message: /save the drawing as ASCII DXF/ });
   });
 });
+
+describe('drawings written by another program (ezdxf 1.4.4, AutoCAD 2018 files: fixtures/import/ezdxf)', () => {
+  const ezdxf = (name: string) => readFileSync(join(dir, 'ezdxf', `${name}.dxf`), 'utf8');
+  /** Circular segment cut off by a chord c with bulge b: r²(θ − sin θ)/2, θ = 4·atan|b|, r = c / 2sin(θ/2) — common practice. */
+  const segment = (b: number, c: number) => {
+    const t = 4 * Math.atan(Math.abs(b));
+    const r = c / (2 * Math.sin(t / 2));
+    return (r * r * (t - Math.sin(t))) / 2;
+  };
+
+  it('nested, mirrored, rotated, unequally scaled and arrayed INSERTs; ELLIPSE and CIRCLE through (0, 0, −1)', async () => {
+    const d = await readDrawing(ezdxf('blocks-r2018'), { file: 'blocks-r2018.dxf' });
+    expect(d.stats.loops).toBe(17);
+    // Block INNER: a 6 × 3 rectangle whose bottom bulges out (0.4) and top in (−0.3), and a circle r = 1.5.
+    const inner = 18 + segment(0.4, 6) - segment(0.3, 6) + PI * 1.5 ** 2;
+    // An affine map multiplies areas by |det| (common practice): OUTER at scale 1.2 holds INNER at
+    // (−1.5, 0.8) and an ellipse πab with a = |(4, 1)|, b = 0.4a; INNER arrayed 3 × 2 at (0.7, −1.1);
+    // loose: ellipse a = |(6, 2)|, b = a/2, and a circle r = 3.
+    const A = 1.44 * (1.2 * inner + PI * 17 * 0.4) + 6 * 0.77 * inner + PI * 40 * 0.5 + PI * 9;
+    close(sectionProperties(d.region).A, A);
+  });
+
+  it('HATCH with a bulged polyline path, clockwise arc and elliptic edges, and a rational spline edge', async () => {
+    const d = await readDrawing(ezdxf('hatch-r2018'), { file: 'hatch-r2018.dxf' });
+    // Outer 60 × 40 bulging out at the bottom (0.2) and in at the top (−0.15); hole 10 × 20 with a half
+    // disc r = 5 on top and a half ellipse 5 × 3 cut from its right side (common practice).
+    const outer = 2400 + segment(0.2, 60) - segment(0.15, 60);
+    const hole = 200 + (PI * 25) / 2 - (PI * 5 * 3) / 2;
+    // The spline path: a rational cubic Bézier (weights 1, 0.7, 1.3, 1) closed by a line; its area
+    // ½∮(x dy − y dx) by composite Simpson on 20,000 steps of the curve (independent of Keelson's quadrature).
+    const P = [[40, 10], [50, 5], [55, 20], [45, 30]] as const;
+    const W = [1, 0.7, 1.3, 1];
+    const at = (t: number) => {
+      const B = [(1 - t) ** 3, 3 * t * (1 - t) ** 2, 3 * t * t * (1 - t), t ** 3].map((b, i) => b * W[i]!);
+      const s = B.reduce((m, b) => m + b, 0);
+      return [B.reduce((m, b, i) => m + b * P[i]![0], 0) / s, B.reduce((m, b, i) => m + b * P[i]![1], 0) / s] as const;
+    };
+    const n = 20_000;
+    const h = 1e-7;
+    let twice = 0;
+    for (let i = 0; i <= n; i++) {
+      const t = i / n;
+      const [x, y] = at(t);
+      const [xa, ya] = at(Math.max(0, t - h));
+      const [xb, yb] = at(Math.min(1, t + h));
+      const dt = Math.min(1, t + h) - Math.max(0, t - h);
+      const f = x * ((yb - ya) / dt) - y * ((xb - xa) / dt);
+      twice += f * (i === 0 || i === n ? 1 : i % 2 ? 4 : 2);
+    }
+    // Closing line from (45, 30) back to (40, 10): x dy − y dx over it is the cross product of its ends.
+    const spline = Math.abs((twice / (3 * n) + (45 * 10 - 30 * 40)) / 2);
+    close(sectionProperties(d.region).A, outer - hole - spline, 1e-8);
+  });
+});
