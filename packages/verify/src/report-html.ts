@@ -97,7 +97,7 @@ function diffSection(d: RunDiff): string {
   const moved = d.moved.map((m) => `<li>${h(m.id)} ${h(m.key)}: ${num(m.from)} → ${num(m.to)} ${h(m.unit)}${m.relative === null ? '' : ` (${percent(m.relative)})`}</li>`);
   const item = (f: { id: string; key: string | null; status: string }) => `<li>${h(f.id)}${f.key ? ` ${h(f.key)}` : ` (${h(f.status)})`}</li>`;
   return `<section class="diff"><h3>Since run ${h(d.from.id)}</h3>
-<p>${d.added.length} added, ${d.removed.length} removed, ${d.drawingsChanged.length} drawings changed${d.codeChanged ? '; code version changed' : ''}${d.manifestChanged ? '; manifest changed' : ''}.</p>
+<p>Profiles added: ${d.added.length}; removed: ${d.removed.length}; drawings changed: ${d.drawingsChanged.length}${d.codeChanged ? '; code version changed' : ''}${d.manifestChanged ? '; manifest changed' : ''}.</p>
 <h4>Drawings changed</h4>${li(d.drawingsChanged.map((c) => `<li>${h(c.id)} (${h(c.drawing)})</li>`))}
 <h4>Values moved beyond tolerance</h4>${li(moved)}
 <h4>New failures</h4>${li(d.newFailures.map(item))}<h4>Fixed</h4>${li(d.fixed.map(item))}

@@ -39,7 +39,7 @@ describe('HTML report', () => {
     const a = await sampleRun(FILES, ROWS);
     const b = await sampleRun({ ...FILES, 'ok.dxf': 'a2' }, ROWS, a);
     const html = renderHtmlReport(b, { diff: diffRuns(a, b) });
-    expect(html).toMatch(/<h3>Since run run-1<\/h3>\s*<p>0 added, 0 removed, 1 drawings changed/);
+    expect(html).toMatch(/<h3>Since run run-1<\/h3>\s*<p>Profiles added: 0; removed: 0; drawings changed: 1/);
   });
 });
 

@@ -95,7 +95,7 @@ function summaryText(run: RunRecord, manifestSource: string, reused: number, dif
   for (const u of run.unlisted) lines.push(`  note    ${u.drawing} has no manifest row`);
   if (diff)
     lines.push(
-      `Since run ${diff.from.id}: ${diff.drawingsChanged.length} drawings changed, ${diff.moved.length} values moved beyond tolerance, ${diff.newFailures.length} new failures, ${diff.fixed.length} fixed, ${diff.added.length} added, ${diff.removed.length} removed (keelson diff ${run.id}).`,
+      `Since run ${diff.from.id}: drawings changed ${diff.drawingsChanged.length}, values moved beyond tolerance ${diff.moved.length}, new failures ${diff.newFailures.length}, fixed ${diff.fixed.length}, profiles added ${diff.added.length}, removed ${diff.removed.length} (keelson diff ${run.id}).`,
     );
   lines.push(`Run ${run.id} stored under ${dataDir()}; ${reused} of ${s.profiles - s.missing} drawings unchanged since the last run, their values reused.`);
   return lines.join('\n');
