@@ -63,7 +63,8 @@ const paramOfAngle = (theta: number, ratio: number) => Math.atan2(Math.sin(theta
  * Edge of a HATCH edge path (AutoCAD DXF Reference, HATCH "Boundary path data"): 1 line, 2
  * circular arc, 3 elliptic arc, 4 spline. Arcs give angles in degrees with a counter-clockwise
  * flag (73); a clockwise arc is stored with its angles negated, i.e. it runs clockwise from −start
- * to −end (as ezdxf reads it — from memory).
+ * to −end (ezdxf 1.4.4 reads and writes them so: "complementary angles", boundary_paths.py; the
+ * fixtures in fixtures/import/ezdxf were written by it).
  */
 function edge(c: Cursor): Segment {
   const type = c.take(72, 'edge type');
