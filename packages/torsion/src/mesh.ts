@@ -133,10 +133,16 @@ class Boundary {
 /**
  * Distance from the middle of each subsegment to the nearest boundary piece across the solid
  * ("facing": within 60° of the inward normal, and facing back), curves adjacent to its own
- * excluded: the local wall thickness, so thin walls get `across` elements through them.
+ * excluded: the local wall thickness, so thin walls get `across` elements through them. Looks at
+ * the pieces marked in `changed` (all when null); returns the pieces it split or made, or null.
  */
-function facingSizes(B: Boundary, p: MeshParams): number {
+function facingSizes(B: Boundary, p: MeshParams, changed: Uint8Array | null): Uint8Array | null {
   const subs = [...B.subsegments()];
+  // Splits wait for the end of the pass, so every piece is measured against the same boundary;
+  // the next pass looks at the pieces split or made only (the others keep their size: a split
+  // moves a partner's chords by less than their sagitta).
+  const before = B.x.length;
+  const splits: number[] = [];
   // Buckets about two median pieces wide; the search grows ring by ring and stops past the best.
   const lens = subs.map((v) => B.length(v)).sort((a, b) => a - b);
   const cell = Math.max(2 * lens[lens.length >> 1]!, 1 / 1024);
@@ -158,8 +164,8 @@ function facingSizes(B: Boundary, p: MeshParams): number {
   for (const v of subs) span(v, (k) => (items[fill[k]!++] = v));
 
   const stamp = new Int32Array(B.x.length).fill(-1);
-  let splits = 0;
   for (const v of subs) {
+    if (changed && v < changed.length && !changed[v]) continue;
     const w = B.next[v]!;
     const ax = B.x[v]!;
     const ay = B.y[v]!;
@@ -210,12 +216,13 @@ function facingSizes(B: Boundary, p: MeshParams): number {
     }
     want = Math.min(want, best / p.across);
     B.want[v] = want;
-    if (len > want * 1.05) {
-      B.split(v, Math.ceil(len / want));
-      splits++;
-    }
+    if (len > want * 1.05) splits.push(v, Math.ceil(len / want));
   }
-  return splits;
+  if (splits.length === 0) return null;
+  for (let k = 0; k < splits.length; k += 2) B.split(splits[k]!, splits[k + 1]!);
+  const made = new Uint8Array(B.x.length).fill(1, before);
+  for (let k = 0; k < splits.length; k += 2) made[splits[k]!] = 1;
+  return made;
 }
 
 /** An arc bulging out of the solid (its centre of curvature on the solid's side, the left). */
@@ -315,7 +322,11 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     const n = Math.max(1, Math.ceil(curveLength(c) / p.hmax - 1e-9), c.arc ? Math.ceil(Math.abs(c.sweep) / arcStep(c.r, p) - 1e-9) : 1);
     if (n > 1) B.split(v, n);
   }
-  for (let pass = 0; pass < 8 && facingSizes(B, p) > 0; pass++);
+  let changed: Uint8Array | null = null;
+  for (let pass = 0; pass < 8; pass++) {
+    changed = facingSizes(B, p, changed);
+    if (!changed) break;
+  }
 
   let reentrant = Math.PI;
   let sharpest = Math.PI;
