@@ -102,7 +102,7 @@ function islands(region: Region): Region[] {
 export async function readProfiles(text: string, opts: ReadOptions): Promise<DrawingSet> {
   const { file } = opts;
   const maxBytes = opts.maxBytes ?? DEFAULT_MAX_BYTES;
-  // UTF-16 code units bound the UTF-8 bytes from below: only a text near the cap needs counting.
+  // UTF-8 takes at most three bytes per UTF-16 code unit: only a text longer than a third of the cap needs counting.
   if (text.length * 3 > maxBytes) {
     const bytes = Buffer.byteLength(text, 'utf8');
     if (bytes > maxBytes) throw new DxfError('TOO_LARGE', file, `file is ${size(bytes)}, over the ${size(maxBytes)} limit`);
@@ -133,7 +133,7 @@ export async function readProfiles(text: string, opts: ReadOptions): Promise<Dra
     region,
     warnings: [...drawingWarnings, ...a.warnings],
     deviation: a.deviation,
-    stats: { entities, segments: segmentCount(region), loops: region.parts.reduce((n, p) => n + 1 + p.holes.length, 0) },
+    stats: { entities, segments: segmentCount(region), loops: region.parts.reduce((k, p) => k + 1 + p.holes.length, 0) },
   });
   if (!groups.length || (split !== 'none' && !c.leaves.length))
     throw new DxfError('NO_CLOSED_OUTLINE', file, `no closed outline: nothing to read in model space${notes.notRead ? `; not read: ${notes.notRead}` : ''}`);
