@@ -2,7 +2,8 @@ import { readDrawing, readProfiles, type LayerSelection, type ParseLimits, type 
 import type { LengthUnit, OutputUnit } from '@keelson/geometry';
 import { decodeDrawing } from './decode';
 import { drawingFault } from './fault';
-import { profileOf, type Profile } from './profile';
+import type { Profile } from './keys';
+import { profileOf } from './profile';
 
 export interface ComputeOptions extends ParseLimits, LayerSelection {
   /** Profile name (the CLI uses the file's base name); the stem of numbered profiles of a split drawing. */

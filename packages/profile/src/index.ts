@@ -3,12 +3,12 @@ export {
   PROPERTY_KEYS,
   TORSION_DIMENSION,
   defaultOutputUnit,
-  profileOf,
   type Profile,
   type ProfileKey,
   type ProfileOptions,
   type TorsionValues,
-} from './profile';
+} from './keys';
+export { profileOf } from './profile';
 export { computeDrawing, computeProfiles, type ComputeOptions, type FailedProfile } from './compute';
 export { decodeDrawing } from './decode';
 export { drawingFault, type DrawingFault } from './fault';

@@ -3,7 +3,8 @@ import { isLengthUnit, isOutputUnit, type LengthUnit, type OutputUnit } from '@k
 
 export const USAGE =
   'usage: keelson props <file.dxf|folder|catalogue.zip> [--units mm|cm|m|in] [--json|--csv] [--drawing-units mm|cm|m|in|ft] ' +
-  '[--split none|blocks|layers|islands] [--layers PATTERN,…] [--exclude-layers PATTERN,…] [--hidden-layers] [--join-tolerance LENGTH]';
+  '[--split none|blocks|layers|islands] [--layers PATTERN,…] [--exclude-layers PATTERN,…] [--hidden-layers] [--join-tolerance LENGTH] ' +
+  '[--torsion-target REL|--no-torsion]';
 
 export type Format = 'table' | 'json' | 'csv';
 
@@ -24,6 +25,8 @@ export interface PropsArgs {
   readonly hiddenLayers?: boolean;
   /** Segment ends closer than this join, in drawing units (default 1e-6 of each drawing's extent). */
   readonly joinTolerance?: number;
+  /** Relative error wanted on J (default 1e-3), or false: no torsion and warping (faster). */
+  readonly torsion?: number | false;
 }
 
 export type Args = PropsArgs | { readonly command: 'help' };
@@ -33,8 +36,8 @@ export class UsageError extends Error {
   override readonly name = 'UsageError';
 }
 
-const FLAGS = new Set(['--json', '--csv', '--hidden-layers']);
-const VALUED = new Set(['--units', '--drawing-units', '--split', '--layers', '--exclude-layers', '--join-tolerance']);
+const FLAGS = new Set(['--json', '--csv', '--hidden-layers', '--no-torsion']);
+const VALUED = new Set(['--units', '--drawing-units', '--split', '--layers', '--exclude-layers', '--join-tolerance', '--torsion-target']);
 
 /** "A,B*" → ["A", "B*"]; empty items dropped. */
 const patterns = (v: string) =>
@@ -85,6 +88,11 @@ export function parseArgs(argv: readonly string[]): Args {
   const joinTolerance = tol === undefined ? undefined : Number(tol);
   if (joinTolerance !== undefined && !(joinTolerance > 0 && Number.isFinite(joinTolerance)))
     throw new UsageError(`--join-tolerance must be a positive length in drawing units, not "${tol}"`);
+  const target = str('--torsion-target');
+  const torsionTarget = target === undefined ? undefined : Number(target);
+  if (torsionTarget !== undefined && !(torsionTarget >= 1e-6 && torsionTarget <= 0.1))
+    throw new UsageError(`--torsion-target must be a relative error between 1e-6 and 0.1, not "${target}"`);
+  if (torsionTarget !== undefined && opts.has('--no-torsion')) throw new UsageError('--torsion-target and --no-torsion exclude each other');
   const layers = str('--layers');
   const excludeLayers = str('--exclude-layers');
   return {
@@ -98,5 +106,6 @@ export function parseArgs(argv: readonly string[]): Args {
     excludeLayers: excludeLayers === undefined ? undefined : patterns(excludeLayers),
     hiddenLayers: opts.has('--hidden-layers') || undefined,
     joinTolerance,
+    torsion: opts.has('--no-torsion') ? false : torsionTarget,
   };
 }

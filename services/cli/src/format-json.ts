@@ -1,4 +1,4 @@
-import { PROPERTY_KEYS, type Profile } from './profile';
+import type { Profile } from '@keelson/profile/keys';
 
 /** A drawing or profile that could not be computed: its entry in place of the profile. */
 export interface FailedProfile {
@@ -9,7 +9,7 @@ export interface FailedProfile {
 
 /**
  * `{"profiles":[{"name","source","units","properties","accuracy","warnings"}]}`, properties in
- * declared order; a drawing that failed is `{"name","source","error":{"code","message"}}` in its place.
+ * declared order (J, Cw, xs, ys last, when computed); a drawing that failed is `{"name","source","error":{"code","message"}}` in its place.
  */
 export function formatJson(entries: readonly (Profile | FailedProfile)[]): string {
   const out = entries.map((p) =>
@@ -19,7 +19,7 @@ export function formatJson(entries: readonly (Profile | FailedProfile)[]): strin
           name: p.name,
           source: p.source,
           units: p.units,
-          properties: Object.fromEntries(PROPERTY_KEYS.map((k) => [k, p.properties[k]])),
+          properties: p.properties,
           accuracy: p.accuracy,
           warnings: p.warnings,
         },

@@ -1,12 +1,12 @@
-import { propertyUnit, type PropertyKey } from '@keelson/geometry';
+import type { Profile, ProfileKey } from '@keelson/profile/keys';
 import { sig4 } from './number';
-import type { Profile } from './profile';
+import { profileUnit } from './units';
 
 export const CAUTION =
   'Computed geometric properties only; structural adequacy must be checked by a licensed engineer under local codes.';
 
 /** Rows of the readable table: label (blank continues the one above), key. */
-const ROWS: readonly (readonly [string, PropertyKey])[] = [
+const ROWS: readonly (readonly [string, ProfileKey])[] = [
   ['Area', 'A'],
   ['Perimeter', 'P'],
   ['Centroid', 'cx'],
@@ -23,13 +23,23 @@ const ROWS: readonly (readonly [string, PropertyKey])[] = [
   ['', 'Sy'],
   ['Plastic modulus', 'Zx'],
   ['', 'Zy'],
+  ['Torsion constant', 'J'],
+  ['Warping constant', 'Cw'],
+  ['Shear centre', 'xs'],
+  ['', 'ys'],
 ];
+
+/** Finite-element values carry their estimated error; closed-form ones are exact to the digits shown. */
+function estimate(p: Profile, key: ProfileKey): string {
+  const a = p.accuracy[key];
+  return a !== undefined && a > 1e-9 && key !== 'xs' && key !== 'ys' ? `  ±${(a * 100).toPrecision(1)} %` : '';
+}
 
 function block(p: Profile): string[] {
   // Mantissas right-aligned, powers of ten and units in their own columns: 1695 above 4.126×10⁶.
-  const cells = ROWS.map(([label, key]) => {
-    const [mantissa, power = ''] = sig4(p.properties[key]).split(/(?=×)/);
-    return [label, key, mantissa!, power, propertyUnit(key, p.units)] as const;
+  const cells = ROWS.filter(([, key]) => p.properties[key] !== undefined).map(([label, key]) => {
+    const [mantissa, power = ''] = sig4(p.properties[key]!).split(/(?=×)/);
+    return [label, key, mantissa!, power, profileUnit(key, p.units) + estimate(p, key)] as const;
   });
   const w = [0, 1, 2, 3].map((i) => Math.max(...cells.map((c) => c[i]!.length)));
   const lines = [`${p.name}  (${p.source}, ${p.units})`];

@@ -5,7 +5,7 @@ import { formatCsv } from './format-csv';
 import { formatJson, type FailedProfile } from './format-json';
 import { formatTable } from './format-table';
 import { listInputs, type Input } from './inputs';
-import { defaultOutputUnit, profileOf, type Profile } from './profile';
+import { defaultOutputUnit, type Profile } from '@keelson/profile/keys';
 
 export interface Io {
   out(text: string): void;
@@ -71,13 +71,15 @@ export async function propsCommand(args: PropsArgs, io: Io): Promise<number> {
   const csvUnits = args.units ?? (first && 'drawing' in first ? defaultOutputUnit(first.drawing.unit) : 'mm');
   const units = args.format === 'csv' ? csvUnits : args.units;
 
+  // The finite-element code loads only once a drawing has been read: a bad file fails fast.
+  const { profileOf } = reads.some((r) => 'drawing' in r) ? await import('@keelson/profile') : { profileOf: null };
   const entries: (Profile | FailedProfile)[] = [];
   const faults: Fault[] = [];
   for (const r of reads) {
     let f: Fault;
     if ('drawing' in r)
       try {
-        entries.push(profileOf(r.drawing, r.drawing.name, r.source, units));
+        entries.push(profileOf!(r.drawing, r.drawing.name, r.source, { units, torsion: args.torsion }));
         continue;
       } catch (e) {
         f = faultOf(e, r.source);

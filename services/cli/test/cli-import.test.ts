@@ -94,7 +94,7 @@ describe('options of keelson props', () => {
   });
 
   it('exact drawings keep the closed-form bound on every key', async () => {
-    const e = (await json('props', fixture('plate-rotated-scaled-insert'))).entries[0]!;
+    const e = (await json('props', fixture('plate-rotated-scaled-insert'), '--no-torsion')).entries[0]!;
     expect(Object.values(e.accuracy!).every((v) => v === 1e-10)).toBe(true);
     expect(e.accuracy!.xpna).toBe(1e-10);
   });
@@ -117,6 +117,8 @@ describe('parseArgs: the import options', () => {
     [['props', 'a', '--join-tolerance', 'x'], /--join-tolerance must be a positive length/],
     [['props', 'a', '--hidden-layers=yes'], /takes no value/],
     [['props', 'a', '--layers'], /--layers needs a value/],
+    [['props', 'a', '--torsion-target', '0'], /--torsion-target must be a relative error/],
+    [['props', 'a', '--torsion-target', '1e-3', '--no-torsion'], /exclude each other/],
   ])('%j is a usage error', (argv, msg) => {
     expect(() => parseArgs(argv)).toThrow(UsageError);
     expect(() => parseArgs(argv)).toThrow(msg);
