@@ -156,10 +156,10 @@ export function refine(L: Level): TriMesh {
   const { quad } = L;
   const nt = m.tri.length / 3;
   const tri = new Uint32Array(12 * nt);
-  for (let t = 0; t < nt; t++) {
-    const [v0, v1, v2, m01, m12, m20] = quad.el.subarray(6 * t, 6 * t + 6);
-    tri.set([v0!, m01!, m20!, m01!, v1!, m12!, m20!, m12!, v2!, m01!, m12!, m20!], 12 * t);
-  }
+  // Children (v0 m01 m20), (m01 v1 m12), (m20 m12 v2), (m01 m12 m20), from the element's six nodes.
+  const CHILDREN = [0, 3, 5, 3, 1, 4, 5, 4, 2, 3, 4, 5];
+  const el = quad.el;
+  for (let t = 0; t < nt; t++) for (let k = 0; k < 12; k++) tri[12 * t + k] = el[6 * t + CHILDREN[k]!]!;
   const nb = m.ba.length;
   const ba = new Uint32Array(2 * nb);
   const bb = new Uint32Array(2 * nb);

@@ -119,14 +119,18 @@ class Boundary {
   }
 
   /** Every subsegment's start point (boundary points in storage order). */
-  *subsegments(): Generator<number> {
-    const n = this.x.length;
-    for (let v = 0; v < n; v++) if (this.next[v]! >= 0) yield v;
+  subsegments(): number[] {
+    const out: number[] = [];
+    for (let v = 0; v < this.x.length; v++) if (this.next[v]! >= 0) out.push(v);
+    return out;
   }
 
   length(v: number): number {
     const w = this.next[v]!;
-    return Math.hypot(this.x[w]! - this.x[v]!, this.y[w]! - this.y[v]!);
+    const dx = this.x[w]! - this.x[v]!;
+    const dy = this.y[w]! - this.y[v]!;
+    // √ rather than Math.hypot, here and below: hypot is slower and its result is boxed in V8.
+    return Math.sqrt(dx * dx + dy * dy);
   }
 }
 
@@ -137,7 +141,7 @@ class Boundary {
  * the pieces marked in `changed` (all when null); returns the pieces it split or made, or null.
  */
 function facingSizes(B: Boundary, p: MeshParams, changed: Uint8Array | null): Uint8Array | null {
-  const subs = [...B.subsegments()];
+  const subs = B.subsegments();
   // Splits wait for the end of the pass, so every piece is measured against the same boundary;
   // the next pass looks at the pieces split or made only (the others keep their size: a split
   // moves a partner's chords by less than their sagitta).
@@ -171,7 +175,7 @@ function facingSizes(B: Boundary, p: MeshParams, changed: Uint8Array | null): Ui
     const ay = B.y[v]!;
     const dx = B.x[w]! - ax;
     const dy = B.y[w]! - ay;
-    const len = Math.hypot(dx, dy);
+    const len = Math.sqrt(dx * dx + dy * dy);
     const nx = -dy / len;
     const ny = dx / len;
     const mx = ax + dx / 2;
@@ -207,7 +211,7 @@ function facingSizes(B: Boundary, p: MeshParams, changed: Uint8Array | null): Ui
             s = s < 0 ? 0 : s > 1 ? 1 : s;
             const qx = ux + s * ex - mx;
             const qy = uy + s * ey - my;
-            const d = Math.hypot(qx, qy);
+            const d = Math.sqrt(qx * qx + qy * qy);
             // Across the solid: q ahead along our inward normal, and we ahead along its inward normal.
             if (d < best && qx * nx + qy * ny >= 0.5 * d && qx * -ey + qy * ex <= 0) best = d;
           }
@@ -248,41 +252,45 @@ function cornerAngle(curves: readonly Curve[], ci: number): number {
 function classify(tri: Uint32Array, half: Int32Array, B: Boundary): Uint8Array {
   const nt = tri.length / 3;
   const depth = new Int32Array(nt).fill(-1);
-  let queue: number[] = [];
-  let later: number[] = [];
+  // Flood of the current depth, and the triangles across a boundary piece for the next one.
+  const queue = new Int32Array(nt);
+  const later = new Int32Array(3 * nt);
+  let nq = 0;
+  let nl = 0;
   for (let e = 0; e < tri.length; e++) {
     if (half[e]! !== -1) continue;
     const t = (e / 3) | 0;
-    if (B.isSub(tri[e]!, tri[next3(e)]!)) later.push(t);
+    if (B.isSub(tri[e]!, tri[next3(e)]!)) later[nl++] = t;
     else if (depth[t] === -1) {
       depth[t] = 0;
-      queue.push(t);
+      queue[nq++] = t;
     }
   }
   let level = 0;
-  while (queue.length > 0 || later.length > 0) {
-    while (queue.length > 0) {
-      const t = queue.pop()!;
+  while (nq > 0 || nl > 0) {
+    while (nq > 0) {
+      const t = queue[--nq]!;
       for (let k = 0; k < 3; k++) {
         const e = 3 * t + k;
         const o = half[e]!;
         if (o < 0) continue;
         const u = (o / 3) | 0;
         if (depth[u] !== -1) continue;
-        if (B.isSub(tri[e]!, tri[next3(e)]!)) later.push(u);
+        if (B.isSub(tri[e]!, tri[next3(e)]!)) later[nl++] = u;
         else {
           depth[u] = level;
-          queue.push(u);
+          queue[nq++] = u;
         }
       }
     }
     level++;
-    queue = later.filter((t) => {
-      if (depth[t] !== -1) return false;
+    for (let k = 0; k < nl; k++) {
+      const t = later[k]!;
+      if (depth[t] !== -1) continue;
       depth[t] = level;
-      return true;
-    });
-    later = [];
+      queue[nq++] = t;
+    }
+    nl = 0;
   }
   const inside = new Uint8Array(nt);
   for (let t = 0; t < nt; t++) inside[t] = depth[t]! % 2 === 1 ? 1 : 0;
@@ -317,7 +325,7 @@ function triangulate(B: Boundary): { tri: Uint32Array; half: Int32Array; inside:
 export function generateMesh(curves: readonly Curve[], loops: readonly (readonly number[])[], p: MeshParams): TriMesh {
   const B = new Boundary(curves, loops, p.hmax);
   // Arcs first, to the angle bound, so that facing distances are measured between good chords.
-  for (const v of [...B.subsegments()]) {
+  for (const v of B.subsegments()) {
     const c = curves[B.curve[v]!]!;
     const n = Math.max(1, Math.ceil(curveLength(c) / p.hmax - 1e-9), c.arc ? Math.ceil(Math.abs(c.sweep) / arcStep(c.r, p) - 1e-9) : 1);
     if (n > 1) B.split(v, n);
@@ -360,7 +368,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
 
   // Boundary to the size field, by bisection so that pieces grade towards small sizes.
   const floor = 1e-3 * hmin;
-  const stack = [...B.subsegments()];
+  const stack = B.subsegments();
   while (stack.length > 0) {
     const v = stack.pop()!;
     const w = B.next[v]!;
@@ -549,18 +557,19 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
   const { tri, inside } = mesh;
   const n = B.x.length;
   const map = new Int32Array(n).fill(-1);
-  const keep: number[] = [];
+  const keep = new Uint32Array(tri.length);
+  let nk = 0;
   let nv = 0;
   for (let t = 0; t < inside.length; t++) {
     if (!inside[t]) continue;
-    let a = tri[3 * t]!;
-    let b = tri[3 * t + 1]!;
+    const a = tri[3 * t]!;
+    const b = tri[3 * t + 1]!;
     const c = tri[3 * t + 2]!;
     const o = (B.x[b]! - B.x[a]!) * (B.y[c]! - B.y[a]!) - (B.y[b]! - B.y[a]!) * (B.x[c]! - B.x[a]!);
-    if (o < 0) [a, b] = [b, a];
-    for (const v of [a, b, c]) {
+    for (let k = 0; k < 3; k++) {
+      const v = k === 2 ? c : (k === 0) === o < 0 ? b : a;
       if (map[v] === -1) map[v] = nv++;
-      keep.push(map[v]!);
+      keep[nk++] = map[v]!;
     }
   }
   const x = new Float64Array(nv);
@@ -570,7 +579,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
       x[map[v]!] = B.x[v]!;
       y[map[v]!] = B.y[v]!;
     }
-  const subs = [...B.subsegments()];
+  const subs = B.subsegments();
   const ba = new Uint32Array(subs.length);
   const bb = new Uint32Array(subs.length);
   const bc = new Int32Array(subs.length);
@@ -584,5 +593,5 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     bt0[k] = B.t0[v]!;
     bt1[k] = B.t1[v]!;
   });
-  return { x, y, tri: Uint32Array.from(keep), ba, bb, bc, bt0, bt1, curves, reentrant, sharpest };
+  return { x, y, tri: keep.slice(0, nk), ba, bb, bc, bt0, bt1, curves, reentrant, sharpest };
 }
