@@ -36,7 +36,7 @@ beforeAll(async () => {
   for (const p of PICK) cpSync(join(demo, `${p}.dxf`), join(folder, `${p}.dxf`));
   writeFileSync(join(folder, 'manifest.csv'), manifestSlice());
   process.env.KEELSON_CATALOGUE_FOLDERS = root;
-  t = await testApp({ apiKeys: parseApiKeys(`acme:${ACME},beta:${BETA}`), workers: 2 });
+  t = await testApp({ apiKeys: parseApiKeys(`acme:${ACME},beta:${BETA}`) });
   // The PLM inbox: a real HTTP server on 127.0.0.1 checking each signature; the first delivery gets a 500.
   receiver = createServer((req, res) => {
     const chunks: Buffer[] = [];
