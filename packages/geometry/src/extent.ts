@@ -13,24 +13,28 @@ export interface Box {
  * Exact on arcs: besides the ends, the arc's points at angles ψ and ψ + π (ψ the angle of d) count when swept.
  */
 export function segmentRange(s: Segment, dx: number, dy: number, o: Point): [number, number] {
-  const psi = Math.atan2(dy, dx);
-  const proj = (p: Point) => (p.x - o.x) * dx + (p.y - o.y) * dy;
-  const p0 = proj(startPoint(s));
-  const p1 = proj(endPoint(s));
+  const p0 = project(startPoint(s), dx, dy, o);
+  const p1 = project(endPoint(s), dx, dy, o);
   let lo = Math.min(p0, p1);
   let hi = Math.max(p0, p1);
   if (s.kind === 'arc') {
-    if (arcContainsAngle(s, psi)) hi = Math.max(hi, proj(pointOnArc(s, psi)));
-    if (arcContainsAngle(s, psi + Math.PI)) lo = Math.min(lo, proj(pointOnArc(s, psi + Math.PI)));
+    const psi = Math.atan2(dy, dx);
+    if (arcContainsAngle(s, psi)) hi = Math.max(hi, project(pointOnArc(s, psi), dx, dy, o));
+    if (arcContainsAngle(s, psi + Math.PI)) lo = Math.min(lo, project(pointOnArc(s, psi + Math.PI), dx, dy, o));
   } else if (s.kind === 'ellipse') {
     // (p − o)·d = const + (u·d) cos t + (v·d) sin t is extreme at t = atan2(v·d, u·d) and that + π.
     const t = Math.atan2(s.v.x * dx + s.v.y * dy, s.u.x * dx + s.u.y * dy);
-    if (arcContainsAngle(s, t)) hi = Math.max(hi, proj(pointOnEllipse(s, t)));
-    if (arcContainsAngle(s, t + Math.PI)) lo = Math.min(lo, proj(pointOnEllipse(s, t + Math.PI)));
+    if (arcContainsAngle(s, t)) hi = Math.max(hi, project(pointOnEllipse(s, t), dx, dy, o));
+    if (arcContainsAngle(s, t + Math.PI)) lo = Math.min(lo, project(pointOnEllipse(s, t + Math.PI), dx, dy, o));
   } else if (s.kind === 'spline') {
-    [lo, hi] = splineRange(s, proj, lo, hi);
+    [lo, hi] = splineRange(s, (p) => project(p, dx, dy, o), lo, hi);
   }
   return [lo, hi];
+}
+
+/** (p − o)·d. A module-level function: a closure made on every call costs more than the sum. */
+function project(p: Point, dx: number, dy: number, o: Point): number {
+  return (p.x - o.x) * dx + (p.y - o.y) * dy;
 }
 
 /**

@@ -1,5 +1,5 @@
 import { CompensatedSum } from './sum';
-import { regionRange } from './extent';
+import { regionRange, segmentRange } from './extent';
 import { allLoops } from './region';
 import { integrate, integrateAdaptive } from './quadrature';
 import { evalSegment, smoothBreaks } from './segment';
@@ -24,12 +24,17 @@ function lineForms(px: number, py: number, qx: number, qy: number, a: Compensate
   q.add(dy * (px * py + (px * dy + py * dx) / 2 + (dx * dy) / 3));
 }
 
-/** Antiderivatives in the arc parameter t of x dy and xy dy, x = h + r cos t, y = k + r sin t. */
-function arcForms(h: number, k: number, r: number, t: number): [number, number] {
+/**
+ * Antiderivatives in the arc parameter t of x dy and xy dy, x = h + r cos t, y = k + r sin t,
+ * written to `out` (a scratch pair: these run hundreds of thousands of times per section, and a
+ * returned pair would be an allocation each).
+ */
+function arcForms(h: number, k: number, r: number, t: number, out: Float64Array): void {
   const s = Math.sin(t);
   const c = Math.cos(t);
   const half = t / 2 + (s * c) / 2;
-  return [h * r * s + r * r * half, r * (h * k * s + (h * r * s * s) / 2 + k * r * half - (r * r * c * c * c) / 3)];
+  out[0] = h * r * s + r * r * half;
+  out[1] = r * (h * k * s + (h * r * s * s) / 2 + k * r * half - (r * r * c * c * c) / 3);
 }
 
 function addLineBelow(px: number, py: number, qx: number, qy: number, c: number, a: CompensatedSum, q: CompensatedSum) {
@@ -43,31 +48,51 @@ function addLineBelow(px: number, py: number, qx: number, qy: number, c: number,
   else lineForms(mx, c, qx, qy, a, q);
 }
 
+/** Scratch of `addArcBelow`: the arc's end parameters and its crossings of the cutting line. */
+const CUTS = new Float64Array(8);
+const FA = new Float64Array(2);
+const FB = new Float64Array(2);
+
 function addArcBelow(s: ArcSegment, o: Point, c: number, a: CompensatedSum, q: CompensatedSum) {
   const h = s.c.x - o.x;
   const k = s.c.y - o.y;
+  const r = s.r;
   const t0 = s.start;
   const t1 = s.start + s.sweep;
   const lo = Math.min(t0, t1);
   const hi = Math.max(t0, t1);
-  const cuts: number[] = [];
-  const m = (c - k) / s.r;
+  // Crossings of y = c strictly between the ends (two per turn at most; an arc turns once at most).
+  let n = 0;
+  CUTS[n++] = t0;
+  const m = (c - k) / r;
   if (m > -1 && m < 1) {
     const base = Math.asin(m);
-    for (const root of [base, Math.PI - base]) {
+    for (let f = 0; f < 2; f++) {
+      const root = f === 0 ? base : Math.PI - base;
       const n0 = Math.ceil((lo - root) / (2 * Math.PI));
-      for (let t = root + n0 * 2 * Math.PI; t < hi; t += 2 * Math.PI) if (t > lo) cuts.push(t);
+      for (let t = root + n0 * 2 * Math.PI; t < hi && n < CUTS.length - 1; t += 2 * Math.PI) if (t > lo) CUTS[n++] = t;
     }
   }
-  const ts = [t0, ...cuts.sort((x, y) => (s.sweep > 0 ? x - y : y - x)), t1];
-  for (let i = 0; i + 1 < ts.length; i++) {
-    const ta = ts[i]!;
-    const tb = ts[i + 1]!;
-    if (k + s.r * Math.sin((ta + tb) / 2) > c) continue;
-    const [fa, ga] = arcForms(h, k, s.r, ta);
-    const [fb, gb] = arcForms(h, k, s.r, tb);
-    a.add(fb - fa);
-    q.add(gb - ga);
+  // In the arc's direction (insertion sort of a few).
+  const dir = s.sweep > 0 ? 1 : -1;
+  for (let i = 2; i < n; i++) {
+    const v = CUTS[i]!;
+    let j = i;
+    while (j > 1 && dir * (CUTS[j - 1]! - v) > 0) {
+      CUTS[j] = CUTS[j - 1]!;
+      j--;
+    }
+    CUTS[j] = v;
+  }
+  CUTS[n++] = t1;
+  for (let i = 0; i + 1 < n; i++) {
+    const ta = CUTS[i]!;
+    const tb = CUTS[i + 1]!;
+    if (k + r * Math.sin((ta + tb) / 2) > c) continue;
+    arcForms(h, k, r, ta, FA);
+    arcForms(h, k, r, tb, FB);
+    a.add(FB[0]! - FA[0]!);
+    q.add(FB[1]! - FA[1]!);
   }
 }
 
@@ -179,12 +204,37 @@ function cutter(region: Region, o: Point): (c: number) => Below {
       if (s.kind === 'line' || s.kind === 'arc') straight.push(s);
       else pieces.push(...monotonePieces(s, o));
     }
+  // The search cuts every arc at every trial line, but most arcs lie wholly above or below it:
+  // their height range and whole-arc integrals are computed once, and only the arcs the line
+  // crosses are cut (the same sums as cutting them all, a few times faster).
+  const n = straight.length;
+  const ylo = new Float64Array(n);
+  const yhi = new Float64Array(n);
+  const wholeA = new Float64Array(n);
+  const wholeQ = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const s = straight[i]!;
+    if (s.kind !== 'arc') continue;
+    [ylo[i], yhi[i]] = segmentRange(s, 0, 1, o);
+    const h = s.c.x - o.x;
+    const k = s.c.y - o.y;
+    arcForms(h, k, s.r, s.start, FA);
+    arcForms(h, k, s.r, s.start + s.sweep, FB);
+    wholeA[i] = FB[0]! - FA[0]!;
+    wholeQ[i] = FB[1]! - FA[1]!;
+  }
   return (c) => {
     const a = new CompensatedSum();
     const q = new CompensatedSum();
-    for (const s of straight) {
+    for (let i = 0; i < n; i++) {
+      const s = straight[i]!;
       if (s.kind === 'line') addLineBelow(s.a.x - o.x, s.a.y - o.y, s.b.x - o.x, s.b.y - o.y, c, a, q);
-      else if (s.kind === 'arc') addArcBelow(s, o, c, a, q);
+      else if (s.kind === 'arc') {
+        if (yhi[i]! < c) {
+          a.add(wholeA[i]!);
+          q.add(wholeQ[i]!);
+        } else if (ylo[i]! <= c) addArcBelow(s, o, c, a, q);
+      }
     }
     for (const m of pieces) addPieceBelow(m, o, c, a, q);
     return { a: a.value, q: q.value };
