@@ -65,6 +65,18 @@ describe('faultOf', () => {
     expect(f.stack).toMatch(/TypeError/);
   });
 
+  it('help lists every command with its usage; props --help only props', async () => {
+    const out: string[] = [];
+    const io = { out: (l: string) => out.push(l), err: () => {}, debug: false };
+    expect(await run(['help'], io)).toBe(0);
+    for (const c of ['props', 'verify', 'diff', 'serve']) expect(out.join('')).toContain(`usage: keelson ${c} `);
+    expect(out.join('')).toMatch(/licensed engineer/);
+    out.length = 0;
+    expect(await run(['props', '--help'], io)).toBe(0);
+    expect(out.join('')).toMatch(/^usage: keelson props /);
+    expect(out.join('')).not.toContain('keelson verify');
+  });
+
   it('run prints the stack of an internal fault only when debugging', async () => {
     const lines: string[] = [];
     const io = (debug: boolean) => ({ out: () => {}, err: (l: string) => lines.push(l), debug });
