@@ -303,19 +303,121 @@ function classify(tri: Uint32Array, half: Int32Array, B: Boundary): Uint8Array {
  * pieces), with which triangles lie inside, ready to take more points one by one.
  */
 function triangulate(B: Boundary): Cdt {
+  for (let attempt = 0; ; attempt++) {
+    const del = new Delaunator(coordinates(B));
+    const used = new Uint8Array(B.x.length);
+    for (let e = 0; e < del.triangles.length; e++) used[del.triangles[e]!] = 1;
+    if (used.includes(0)) throw new TorsionError('MESH_FAILED', 'mesh generator produced coincident points');
+    // Boundary pieces that are edges of the Delaunay triangulation already need no work (and no
+    // flip made for another piece removes them: pieces do not cross).
+    const missing = missingPieces(B, del.triangles);
+    if (missing.length > 0)
+      try {
+        const con = constrainer(del);
+        for (const v of missing) con.constrainOne(v, B.next[v]!);
+      } catch (e) {
+        // constrainautor gives up on some nearly collinear configurations ("edge intersects
+        // already constrained edge", "infinite loop"): split the missing pieces at their middle,
+        // on their curves, and start again. Pieces short enough against their neighbours are
+        // Delaunay edges by themselves (segment recovery by splitting, as in Ruppert 1995).
+        if (attempt >= 30) throw new TorsionError('MESH_FAILED', `the boundary could not be recovered in the triangulation: ${(e as Error).message}`);
+        for (const v of missing) B.split(v, 2);
+        continue;
+      }
+    const inside = classify(del.triangles, del.halfedges, B);
+    return new Cdt(del.triangles, del.halfedges, inside, B.x, B.y, (a, b) => B.isSub(a, b));
+  }
+}
+
+function coordinates(B: Boundary): Float64Array {
   const n = B.x.length;
   const coords = new Float64Array(2 * n);
   for (let i = 0; i < n; i++) {
     coords[2 * i] = B.x[i]!;
     coords[2 * i + 1] = B.y[i]!;
   }
-  const del = new Delaunator(coords);
-  const con = constrainer(del);
-  for (const v of B.subsegments()) con.constrainOne(v, B.next[v]!);
-  if (con.untriangulatedPoints().length > 0)
-    throw new TorsionError('MESH_FAILED', 'mesh generator produced coincident points');
-  const inside = classify(del.triangles, del.halfedges, B);
-  return new Cdt(del.triangles, del.halfedges, inside, B.x, B.y, (a, b) => B.isSub(a, b));
+  return coords;
+}
+
+/** Boundary pieces (by start point) that are not edges of the triangulation. */
+function missingPieces(B: Boundary, triangles: Uint32Array): number[] {
+  const present = new Uint8Array(B.x.length);
+  for (let e = 0; e < triangles.length; e++) {
+    const a = triangles[e]!;
+    const b = triangles[next3(e)]!;
+    if (B.next[a] === b) present[a] = 1;
+    else if (B.next[b] === a) present[b] = 1;
+  }
+  return B.subsegments().filter((v) => !present[v]);
+}
+
+/**
+ * The boundary pieces by the cells of a grid their diametral circles cover, to find every piece a
+ * point encroaches on (lies in the closed circle on the piece as diameter). Ruppert's algorithm
+ * rejects such a point and splits the piece; testing only the edges of the triangle that holds the
+ * point misses pieces a sliver away, and a point let in beside one of them starts a cascade of
+ * ever smaller splits.
+ */
+class Encroachment {
+  private readonly n: number;
+  private readonly cell: number;
+  private readonly start: Int32Array;
+  private items = new Int32Array(0);
+
+  constructor(private readonly B: Boundary) {
+    // Cells about twice the mean piece: a few pieces per cell, long pieces over several cells.
+    let total = 0;
+    let pieces = 0;
+    for (let v = 0; v < B.x.length; v++)
+      if (B.next[v]! >= 0) {
+        total += B.length(v);
+        pieces++;
+      }
+    this.cell = Math.max((2 * total) / pieces, 1 / 1024);
+    const n = (this.n = Math.ceil(1.04 / this.cell));
+    const count = new Int32Array(n * n + 1);
+    for (let pass = 0; pass < 2; pass++) {
+      const fill = pass === 0 ? count : count.slice(0, n * n);
+      if (pass === 1) this.items = new Int32Array(count[n * n]!);
+      for (let v = 0; v < B.x.length; v++) {
+        const w = B.next[v]!;
+        if (w < 0) continue;
+        const mx = (B.x[v]! + B.x[w]!) / 2;
+        const my = (B.y[v]! + B.y[w]!) / 2;
+        const r = B.length(v) / 2;
+        const i0 = this.index(mx - r);
+        const i1 = this.index(mx + r);
+        const j1 = this.index(my + r);
+        for (let j = this.index(my - r); j <= j1; j++)
+          for (let i = i0; i <= i1; i++) {
+            if (pass === 0) count[j * n + i + 1]!++;
+            else this.items[fill[j * n + i]!++] = v;
+          }
+      }
+      if (pass === 0) for (let k = 0; k < n * n; k++) count[k + 1]! += count[k]!;
+    }
+    this.start = count;
+  }
+
+  private index(x: number): number {
+    return Math.min(this.n - 1, Math.max(0, Math.floor((x + 0.52) / this.cell)));
+  }
+
+  /** Calls `hit` with every piece (by start point) that (x, y) encroaches on; returns whether there was one. */
+  find(x: number, y: number, hit: (v: number) => void): boolean {
+    const { B } = this;
+    const k = this.index(y) * this.n + this.index(x);
+    let any = false;
+    for (let q = this.start[k]!; q < this.start[k + 1]!; q++) {
+      const v = this.items[q]!;
+      const w = B.next[v]!;
+      if ((B.x[v]! - x) * (B.x[w]! - x) + (B.y[v]! - y) * (B.y[w]! - y) <= 0) {
+        hit(v);
+        any = true;
+      }
+    }
+    return any;
+  }
 }
 
 /**
@@ -331,6 +433,7 @@ function seed(B: Boundary, mesh: Cdt, field: SizeField): void {
   const spacing = 1.2;
   const { tri, half, inside } = mesh.view();
   const { n, cell, v } = field;
+  const pieces = new Encroachment(B);
   const X = B.x;
   const Y = B.y;
   const head = new Int32Array(n * n).fill(-1);
@@ -390,7 +493,7 @@ function seed(B: Boundary, mesh: Cdt, field: SizeField): void {
         if (dx * dx + dy * dy < 0.25 * r * r) clear = false;
         else if (B.isSub(a, b) && (X[a]! - x) * (X[b]! - x) + (Y[a]! - y) * (Y[b]! - y) <= 0) clear = false;
       }
-      if (!clear) continue;
+      if (!clear || pieces.find(x, y, () => {})) continue;
       link.push(head[j * n + i]!);
       head[j * n + i] = sx.length;
       sx.push(x);
@@ -589,6 +692,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     // in, so the batch is a sequential Bowyer–Watson insertion (whatever the order of the
     // others) and keeps Ruppert's insertion-radius bound; the whole set is triangulated afresh.
     bad.sort((a, b) => rr[b]! - rr[a]!);
+    const pieces = new Encroachment(B);
     head.fill(-1);
     link.length = 0;
     const first = X.length;
@@ -611,6 +715,7 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
           encroaches = true;
         }
       }
+      if (!encroaches) encroaches = pieces.find(ux, uy, (v) => markSplit(v, B.next[v]!));
       if (encroaches) continue;
       const R = Math.sqrt(rr[t]!);
       let crowded = false;

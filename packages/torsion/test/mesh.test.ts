@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { sectionProperties, type Region } from '@keelson/geometry';
-import { channel, circle, hollowRectangle, iSection, rectangle, tube } from '@keelson/shapes';
-import { baseMesh, meshRegion, meshSvg, quadratic, refine, solveWarping, type Level, type TriMesh } from '../src';
+import { makeRegion, sectionProperties, type Region } from '@keelson/geometry';
+import { channel, circle, filletedPolygon, hollowRectangle, iSection, rectangle, tube } from '@keelson/shapes';
+import { baseMesh, meshRegion, meshSvg, quadratic, refine, solveWarping, torsionProperties, type Level, type TriMesh } from '../src';
 import { curveX, curveY } from '../src/frame';
 import { equilateral, rectangleBeta, rel, semicircularTube } from './helpers';
 
@@ -123,5 +123,34 @@ describe('mesh', () => {
     expect(svg.match(/<path /g)?.length).toBe(mesh.el.length / 6);
     expect(svg).toMatch(/Q[-\d.]+ [-\d.]+ /);
     expect(svg).not.toMatch(/NaN|Infinity/);
+  });
+});
+
+describe('mesh robustness', () => {
+  // A pentagon with a sharp corner rounded to 0.08 mm and a re-entrant one to 0.43 mm, found by a
+  // random search over filleted polygons: constrainautor gave up on its boundary ("constraining
+  // edge exited the hull"), and refinement that tested encroachment on the containing triangle's
+  // edges only split one side ever finer (28,000 vertices, 76 s). No published value: the checks
+  // are that it meshes, stays small, and the torsion estimate converges.
+  const pentagon = makeRegion([
+    {
+      outer: filletedPolygon([
+        { x: 121.394, y: 26.597, r: 0 },
+        { x: 9.124, y: 120.464, r: 0.08452 },
+        { x: -31.242, y: 19.531, r: 0 },
+        { x: -57.876, y: -80.515, r: 0 },
+        { x: 36.174, y: -52.796, r: 0.4331 },
+      ]),
+      holes: [],
+    },
+  ]);
+
+  it('meshes a polygon with tiny fillets at sharp corners without a cascade of splits', () => {
+    const { mesh } = baseMesh(pentagon);
+    expect(mesh.x.length).toBeLessThan(500);
+    expect(minAngle(mesh)).toBeGreaterThanOrEqual(20 - 1e-9);
+    const p = torsionProperties(pentagon);
+    expect(p.converged).toBe(true);
+    expect(p.accuracy.J).toBeLessThanOrEqual(1e-3);
   });
 });
