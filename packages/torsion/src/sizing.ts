@@ -32,10 +32,25 @@ export class SizeField {
     return j * n + i;
   }
 
+  /**
+   * Sources much smaller than a cell (a tiny fillet), as x, y, h triples by cell: the grid alone
+   * would ask for their size over the whole cell (tens of thousands of elements where a graded
+   * handful will do), so near them the field is evaluated exactly.
+   */
+  private readonly small = new Map<number, number[]>();
+
   /** Asks for elements no larger than h at (x, y). Call `spread` once all sources are in. */
   source(x: number, y: number, h: number): void {
     const k = this.index(x, y);
-    if (h < this.v[k]!) this.v[k] = h;
+    let cellSize = h;
+    if (h < this.cell / 4) {
+      const list = this.small.get(k);
+      if (list) list.push(x, y, h);
+      else this.small.set(k, [x, y, h]);
+      // The grid keeps the size about half a cell from the source.
+      cellSize = h + (this.grading * this.cell) / 2;
+    }
+    if (cellSize < this.v[k]!) this.v[k] = cellSize;
   }
 
   spread(): void {
@@ -69,6 +84,22 @@ export class SizeField {
   }
 
   at(x: number, y: number): number {
-    return this.v[this.index(x, y)]!;
+    const k = this.index(x, y);
+    let h = this.v[k]!;
+    if (this.small.size === 0) return h;
+    const { n } = this;
+    const i = k % n;
+    const j = (k - i) / n;
+    for (let jj = Math.max(0, j - 1); jj <= Math.min(n - 1, j + 1); jj++)
+      for (let ii = Math.max(0, i - 1); ii <= Math.min(n - 1, i + 1); ii++) {
+        const list = this.small.get(jj * n + ii);
+        if (!list) continue;
+        for (let q = 0; q < list.length; q += 3) {
+          const dx = x - list[q]!;
+          const dy = y - list[q + 1]!;
+          h = Math.min(h, list[q + 2]! + this.grading * Math.sqrt(dx * dx + dy * dy));
+        }
+      }
+    return h;
   }
 }
