@@ -83,7 +83,6 @@ export class Cdt {
    * triangle t, 4t + i when it lies on its edge i, −1 outside the hull.
    */
   private locate(px: number, py: number, t0: number): number {
-    const { tri, X, Y } = this;
     let t = t0;
     for (let step = 0, limit = 4 * this.count + 16; step < limit; step++) {
       let moved = false;
@@ -93,21 +92,15 @@ export class Cdt {
       for (let k = 0; k < 3; k++) {
         const i = (r + k) % 3;
         const e = 3 * t + i;
-        const a = tri[e]!;
-        const b = tri[next3(e)]!;
-        const ex = X[b]! - X[a]!;
-        const ey = Y[b]! - Y[a]!;
-        const o = ex * (py - Y[a]!) - ey * (px - X[a]!);
-        // Clockwise triangles: the point lies beyond edge a→b when it is on its left.
-        const tol = 1e-13 * (ex * ex + ey * ey);
-        if (o > tol) {
+        const side = this.side(e, px, py);
+        if (side > 0) {
           const u = this.half[e]!;
           if (u < 0) return -1;
           t = (u / 3) | 0;
           moved = true;
           break;
         }
-        if (o >= -tol) on = i;
+        if (side === 0) on = i;
       }
       if (!moved) return 4 * t + on;
     }
@@ -116,19 +109,28 @@ export class Cdt {
       let on = 3;
       let out = false;
       for (let i = 0; i < 3 && !out; i++) {
-        const e = 3 * s + i;
-        const a = tri[e]!;
-        const b = tri[next3(e)]!;
-        const ex = X[b]! - X[a]!;
-        const ey = Y[b]! - Y[a]!;
-        const o = ex * (py - Y[a]!) - ey * (px - X[a]!);
-        const tol = 1e-13 * (ex * ex + ey * ey);
-        if (o > tol) out = true;
-        else if (o >= -tol) on = i;
+        const side = this.side(3 * s + i, px, py);
+        if (side > 0) out = true;
+        else if (side === 0) on = i;
       }
       if (!out) return 4 * s + on;
     }
     return -1;
+  }
+
+  /**
+   * Where (px, py) lies against half-edge e = a→b: 1 beyond it (on its left: triangles turn
+   * clockwise), 0 on it within rounding, −1 on the triangle's side.
+   */
+  private side(e: number, px: number, py: number): number {
+    const { tri, X, Y } = this;
+    const a = tri[e]!;
+    const b = tri[next3(e)]!;
+    const ex = X[b]! - X[a]!;
+    const ey = Y[b]! - Y[a]!;
+    const o = ex * (py - Y[a]!) - ey * (px - X[a]!);
+    const tol = 1e-13 * (ex * ex + ey * ey);
+    return o > tol ? 1 : o >= -tol ? 0 : -1;
   }
 
   private grow(extra: number): void {
