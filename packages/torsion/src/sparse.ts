@@ -358,14 +358,14 @@ export interface SolveReport {
   readonly residual: number;
 }
 
+/** A preconditioner: z ≈ A⁻¹ r. */
+export type Preconditioner = (r: Float64Array, z: Float64Array) => void;
+
 /**
  * Preconditioned conjugate gradients (Hestenes & Stiefel 1952; Saad, "Iterative Methods for
  * Sparse Linear Systems", 2nd ed., Alg. 9.1) for A·x = b with A symmetric positive definite;
  * x holds the starting guess and receives the solution. Stops when ‖r‖ ≤ tol·‖b‖.
  */
-/** A preconditioner: z ≈ A⁻¹ r. */
-export type Preconditioner = (r: Float64Array, z: Float64Array) => void;
-
 export function conjugateGradient(
   A: Csr,
   M: Factor | Preconditioner,
@@ -410,13 +410,15 @@ export function conjugateGradient(
       r[i] = ri;
       rr += ri * ri;
     }
+    it++;
+    // Converged: the next direction would not be used, so its preconditioning (a whole V-cycle) is skipped.
+    if (rr <= stop) break;
     precondition(r, z);
     let rz1 = 0;
     for (let i = 0; i < n; i++) rz1 += r[i]! * z[i]!;
     const beta = rz1 / rz;
     rz = rz1;
     for (let i = 0; i < n; i++) p[i] = z[i]! + beta * p[i]!;
-    it++;
   }
   if (!(rr <= stop)) throw new TorsionError('SOLVER_FAILED', `conjugate gradients did not converge in ${maxIter} iterations`);
   return { iterations: it, residual: Math.sqrt(rr / bb) };
