@@ -289,50 +289,35 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
   }
   const J = Ix + Iy - (2 * fu - uKu);
 
-  // Mean zero over each connected piece.
+  // One pass over the elements: per connected piece its area, ∫x, ∫y and ∫u (u's mean is taken
+  // off each piece), and over the section ∫u·x, ∫u·y, ∫u². With ω = u − m on each piece:
+  // ∫ω·x = ∫u·x − Σ m·∫x, and ∫ω² = ∫u² − Σ m·∫u (as m·A = ∫u).
   const pieceA = new Float64Array(components);
-  const pieceW = new Float64Array(components);
-  for (let e = 0; e < ne; e++) {
-    const n = 6 * e;
-    const c = component[el[n]!]!;
-    if (curved[e]) {
-      gather(mesh, e, cx, cy, ex, ey);
-      E.evaluate(ex, ey, RULE6);
-      for (let q = 0; q < 6; q++) {
-        let v = 0;
-        for (let k = 0; k < 6; k++) v += N6[6 * q + k]! * u[el[n + k]!]!;
-        pieceA[c]! += E.wd[q]!;
-        pieceW[c]! += E.wd[q]! * v;
-      }
-      continue;
-    }
-    const a = el[n]!;
-    const b = el[n + 1]!;
-    const d = el[n + 2]!;
-    const area = ((x[b]! - x[a]!) * (y[d]! - y[a]!) - (x[d]! - x[a]!) * (y[b]! - y[a]!)) / 2;
-    pieceA[c]! += area;
-    // ∫Ni dA is A/3 for the edge functions, 0 for the corner ones.
-    pieceW[c]! += (area * (u[el[n + 3]!]! + u[el[n + 4]!]! + u[el[n + 5]!]!)) / 3;
-  }
-  const omega = new Float64Array(nn);
-  for (let i = 0; i < nn; i++) omega[i] = u[i]! - pieceW[component[i]!]! / pieceA[component[i]!]!;
-
-  let Iwx = 0;
-  let Iwy = 0;
-  let W2 = 0;
+  const pieceX = new Float64Array(components);
+  const pieceY = new Float64Array(components);
+  const pieceU = new Float64Array(components);
+  let Iux = 0;
+  let Iuy = 0;
+  let U2 = 0;
   const w = new Float64Array(6);
   for (let e = 0; e < ne; e++) {
     const n = 6 * e;
-    for (let k = 0; k < 6; k++) w[k] = omega[el[n + k]!]!;
+    const c = component[el[n]!]!;
+    for (let k = 0; k < 6; k++) w[k] = u[el[n + k]!]!;
     if (curved[e]) {
       gather(mesh, e, cx, cy, ex, ey);
       E.evaluate(ex, ey, RULE6);
       for (let q = 0; q < 6; q++) {
         let v = 0;
         for (let k = 0; k < 6; k++) v += N6[6 * q + k]! * w[k]!;
-        Iwx += E.wd[q]! * v * E.px[q]!;
-        Iwy += E.wd[q]! * v * E.py[q]!;
-        W2 += E.wd[q]! * v * v;
+        const wd = E.wd[q]!;
+        pieceA[c]! += wd;
+        pieceX[c]! += wd * E.px[q]!;
+        pieceY[c]! += wd * E.py[q]!;
+        pieceU[c]! += wd * v;
+        Iux += wd * v * E.px[q]!;
+        Iuy += wd * v * E.py[q]!;
+        U2 += wd * v * v;
       }
       continue;
     }
@@ -343,6 +328,11 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
     const Y1 = y[el[n + 1]!]! - cy;
     const Y2 = y[el[n + 2]!]! - cy;
     const area = ((X1 - X0) * (Y2 - Y0) - (X2 - X0) * (Y1 - Y0)) / 2;
+    pieceA[c]! += area;
+    pieceX[c]! += (area * (X0 + X1 + X2)) / 3;
+    pieceY[c]! += (area * (Y0 + Y1 + Y2)) / 3;
+    // ∫Ni dA is A/3 for the edge functions, 0 for the corner ones.
+    pieceU[c]! += (area * (w[3]! + w[4]! + w[5]!)) / 3;
     let sx = 0;
     let sy = 0;
     let s2 = 0;
@@ -354,10 +344,23 @@ export function finish(mesh: QuadMesh, asm: Assembly, u: Float64Array, iteration
       for (let j = 0; j < 6; j++) m += Ma[6 * i + j]! * w[j]!;
       s2 += wi * m;
     }
-    Iwx += area * sx;
-    Iwy += area * sy;
-    W2 += area * s2;
+    Iux += area * sx;
+    Iuy += area * sy;
+    U2 += area * s2;
   }
+  let Iwx = Iux;
+  let Iwy = Iuy;
+  let W2 = U2;
+  const mean = new Float64Array(components);
+  for (let c = 0; c < components; c++) {
+    const m = pieceU[c]! / pieceA[c]!;
+    mean[c] = m;
+    Iwx -= m * pieceX[c]!;
+    Iwy -= m * pieceY[c]!;
+    W2 -= m * pieceU[c]!;
+  }
+  const omega = new Float64Array(nn);
+  for (let i = 0; i < nn; i++) omega[i] = u[i]! - mean[component[i]!]!;
   const det = Ix * Iy - Ixy * Ixy;
   const x0 = (Ixy * Iwx - Iy * Iwy) / det;
   const y0 = (Ix * Iwx - Ixy * Iwy) / det;
