@@ -34,8 +34,10 @@ function markers(region: Region): Point[] {
 export function symmetries(region: Region, c: Point, tol: number): Symmetry[] {
   const pts = markers(region);
   const cell = 4 * tol;
-  const grid = new Map<string, Point[]>();
-  const key = (i: number, j: number) => `${i},${j}`;
+  const grid = new Map<number, Point[]>();
+  // A numeric hash of the cell (string keys cost more than the search): cells that share a key
+  // only add candidates, each tested by its distance.
+  const key = (i: number, j: number) => (i * 1_000_003 + j) % 2 ** 52;
   for (const p of pts) {
     const k = key(Math.floor(p.x / cell), Math.floor(p.y / cell));
     (grid.get(k) ?? grid.set(k, []).get(k)!).push(p);
