@@ -18,6 +18,8 @@ export class Cdt {
   count: number;
   private readonly stack: number[] = [];
   private seed = 1;
+  /** Triangles made or changed since `takeTouched` was last called. */
+  private touched: number[] = [];
 
   constructor(
     tri: Uint32Array,
@@ -36,6 +38,13 @@ export class Cdt {
     this.tri.set(tri);
     this.half.set(half);
     this.inside.set(inside);
+  }
+
+  /** The triangles made or changed since the last call (repeats possible), and a fresh list. */
+  takeTouched(): number[] {
+    const out = this.touched;
+    this.touched = [];
+    return out;
   }
 
   /** The triangles in use, as views (valid until the next insertion). */
@@ -178,6 +187,7 @@ export class Cdt {
     this.link(e + 1, t1 + 2);
     this.link(t1 + 1, t2 + 2);
     this.link(t2 + 1, e + 2);
+    this.touched.push(t, t1 / 3, t2 / 3);
     this.legalize(e);
     this.legalize(t1);
     this.legalize(t2);
@@ -220,6 +230,7 @@ export class Cdt {
     this.link(on, u2 + 2);
     this.link(t2 + 1, hbc);
     this.link(u2 + 1, had);
+    this.touched.push((e / 3) | 0, (o / 3) | 0, t2 / 3, u2 / 3);
     this.legalize(ep);
     this.legalize(t2 + 1);
     this.legalize(op);
@@ -259,6 +270,7 @@ export class Cdt {
       this.link(en, op);
       this.link(o, hqb);
       this.link(on, hbp);
+      this.touched.push((e / 3) | 0, (o / 3) | 0);
       stack.push(e, o);
     }
   }

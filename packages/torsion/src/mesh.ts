@@ -579,9 +579,17 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
   const link: number[] = [];
   let cdt = triangulate(B);
   seed(B, cdt, field);
+  // Triangles to examine in a round: all of them after a fresh triangulation; otherwise those the
+  // last round's insertions made or changed and those it found bad (the others are as they were:
+  // good). Marked by the round that took them.
+  let candidates: number[] | null = null;
+  cdt.takeTouched();
+  let pieces: Encroachment | null = null;
+  let taken = new Int32Array(0);
   for (let round = 0; round < 100; round++) {
     const { tri, half, inside } = cdt.view();
     const nt = tri.length / 3;
+    if (taken.length < nt) taken = new Int32Array(2 * nt).fill(-1);
     const X = B.x;
     const Y = B.y;
     // Subsegments to split, by start point.
@@ -599,8 +607,11 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     const ccy = new Float64Array(nt);
     const rr = new Float64Array(nt);
     const bad: number[] = [];
-    for (let t = 0; t < nt; t++) {
-      if (!inside[t]) continue;
+    const count = candidates ? candidates.length : nt;
+    for (let c = 0; c < count; c++) {
+      const t = candidates ? candidates[c]! : c;
+      if (!inside[t] || taken[t] === round) continue;
+      taken[t] = round;
       const i0 = tri[3 * t]!;
       const i1 = tri[3 * t + 1]!;
       const i2 = tri[3 * t + 2]!;
@@ -692,7 +703,8 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     // in, so the batch is a sequential Bowyer–Watson insertion (whatever the order of the
     // others) and keeps Ruppert's insertion-radius bound; the whole set is triangulated afresh.
     bad.sort((a, b) => rr[b]! - rr[a]!);
-    const pieces = new Encroachment(B);
+    // The boundary changes only in rounds that split a piece.
+    if (!pieces) pieces = new Encroachment(B);
     head.fill(-1);
     link.length = 0;
     const first = X.length;
@@ -749,8 +761,14 @@ export function generateMesh(curves: readonly Curve[], loops: readonly (readonly
     if (inserted === 0 && splitCount === 0) break;
     // New interior points go into the triangulation one by one; a split boundary piece (its new
     // point lies on the exact curve, off the chord) makes the triangulation start afresh.
-    if (splitCount > 0) cdt = triangulate(B);
-    else for (let q = 0; q < inserted; q++) cdt.insert(first + q, near[q]!);
+    if (splitCount > 0) {
+      cdt = triangulate(B);
+      candidates = null;
+      pieces = null;
+    } else {
+      for (let q = 0; q < inserted; q++) cdt.insert(first + q, near[q]!);
+      candidates = cdt.takeTouched().concat(bad);
+    }
   }
 
   // Keep the inside triangles, counter-clockwise, on the vertices they use.
