@@ -365,15 +365,19 @@ class Encroachment {
   private items = new Int32Array(0);
 
   constructor(private readonly B: Boundary) {
-    // Cells about twice the mean piece: a few pieces per cell, long pieces over several cells.
+    // Cells about twice the mean piece: a few pieces per cell, long pieces over several cells
+    // (at most about 33 × 33 for the longest).
     let total = 0;
+    let longest = 0;
     let pieces = 0;
     for (let v = 0; v < B.x.length; v++)
       if (B.next[v]! >= 0) {
-        total += B.length(v);
+        const len = B.length(v);
+        total += len;
+        longest = Math.max(longest, len);
         pieces++;
       }
-    this.cell = Math.max((2 * total) / pieces, 1 / 1024);
+    this.cell = Math.max((2 * total) / pieces, longest / 32, 1 / 1024);
     const n = (this.n = Math.ceil(1.04 / this.cell));
     const count = new Int32Array(n * n + 1);
     for (let pass = 0; pass < 2; pass++) {
