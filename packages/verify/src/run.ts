@@ -87,8 +87,14 @@ export function summarise(profiles: readonly ProfileResult[], unlisted: number):
   };
 }
 
-/** "20261201T223000Z-3fa2c1": sorts by start time, unique without coordination. */
+/**
+ * "20261201T223000Z-3fa2c1": sorts by start time, unique without coordination. The suffix is the
+ * millisecond (times 4096) plus 12 random bits, in six hex digits, so two runs started within the
+ * same second still sort in the order they started (a catalogue verified twice in a second diffs
+ * the right way round).
+ */
 export function newRunId(at: Date): string {
   const stamp = at.toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
-  return `${stamp}-${randomBytes(3).toString('hex')}`;
+  const suffix = at.getUTCMilliseconds() * 4096 + (randomBytes(2).readUInt16BE(0) & 0xfff);
+  return `${stamp}-${suffix.toString(16).padStart(6, '0')}`;
 }

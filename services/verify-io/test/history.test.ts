@@ -41,6 +41,19 @@ describe('FileRunHistory', () => {
     expect(await h.previous(a.id)).toBeNull();
   });
 
+  it('orders runs started within the same second by their milliseconds', async () => {
+    const h = new FileRunHistory(dir);
+    // Repeated: the ids carry random bits, and the order must never depend on them.
+    for (let k = 0; k < 20; k++) {
+      const first = run(`2026-04-01T02:00:00.${String(k).padStart(3, '0')}Z`);
+      const second = run(`2026-04-01T02:00:00.${String(k + 1).padStart(3, '0')}Z`, 1);
+      expect(first.id < second.id).toBe(true);
+      await h.save(`same-${k}`, second);
+      await h.save(`same-${k}`, first);
+      expect((await h.previous(second.id))!.id).toBe(first.id);
+    }
+  });
+
   it('keeps a delivery log beside its run', async () => {
     const h = new FileRunHistory(dir);
     const r = run('2026-03-03T02:00:00.000Z');
