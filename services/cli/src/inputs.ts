@@ -1,6 +1,6 @@
 import { readFile, readdir, stat } from 'node:fs/promises';
 import { basename, extname, join } from 'node:path';
-import { ArchiveError, DEFAULT_ZIP_LIMITS, readZipCatalogue } from '@keelson/archive';
+import { ArchiveError, DEFAULT_ZIP_LIMITS, fileSystemCause, readZipCatalogue } from '@keelson/archive';
 import { DEFAULT_MAX_BYTES, DxfError } from '@keelson/dxf';
 
 /** A file or folder the user named that cannot be read: exit 2, "keelson: <file>: <detail>". */
@@ -23,19 +23,10 @@ export interface Input {
   readonly text: () => Promise<string>;
 }
 
-const FS_CAUSES: Record<string, string> = {
-  ENOENT: 'no such file or folder',
-  EACCES: 'permission denied',
-  EPERM: 'permission denied',
-  EISDIR: 'is a folder',
-  ENOTDIR: 'not a folder',
-  ELOOP: 'too many symbolic links',
-};
-
 /** File-system errors as one-line causes; anything else stays an internal fault. */
 function fsFault(file: string, e: unknown): unknown {
-  const code = (e as { code?: string }).code;
-  return code && FS_CAUSES[code] ? new InputError(file, FS_CAUSES[code]) : e;
+  const cause = fileSystemCause(e);
+  return cause ? new InputError(file, cause) : e;
 }
 
 const profileName = (file: string) => basename(file.replace(/\\/g, '/'), extname(file));
