@@ -51,11 +51,13 @@ export function profileOf(drawing: Drawing, name: string, source: string, opts: 
   // The shear centre lies on every axis of symmetry (and at the centre of a point-symmetric
   // section): where the drawing has one, that coordinate is exact, not a finite-element estimate.
   const sym = symmetries(drawing.region, { x: raw.cx, y: raw.cy }, EXACT * Math.max(raw.xmax - raw.xmin, raw.ymax - raw.ymin));
+  // The centroid taken from `properties` is converted and tidied already (no 1e-18 for 0).
   const tAccuracy = { ...t.accuracy };
-  let { xs, ys } = t;
-  if (sym.includes('mirror-x') || sym.includes('point')) [xs, tAccuracy.xs] = [raw.cx, EXACT];
-  if (sym.includes('mirror-y') || sym.includes('point')) [ys, tAccuracy.ys] = [raw.cy, EXACT];
-  const torsion: TorsionValues = { J: t.J * f ** 4, Cw: t.Cw * f ** 6, xs: xs * f, ys: ys * f };
+  let xs = t.xs * f;
+  let ys = t.ys * f;
+  if (sym.includes('mirror-x') || sym.includes('point')) [xs, tAccuracy.xs] = [properties.cx, EXACT];
+  if (sym.includes('mirror-y') || sym.includes('point')) [ys, tAccuracy.ys] = [properties.cy, EXACT];
+  const torsion: TorsionValues = { J: t.J * f ** 4, Cw: t.Cw * f ** 6, xs, ys };
   if (!t.converged) warnings.push(`torsion: target accuracy not reached within the mesh limit (J to ${t.accuracy.J.toPrecision(2)})`);
   return {
     name,

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { CIRCLE, dxf, rectLines } from '../../dxf/test/dxf';
 import { computeDrawing, computeProfiles, drawingFault, EXACT, PROPERTY_KEYS } from '../src';
@@ -36,6 +37,11 @@ describe('computeDrawing', () => {
     const cm = await computeDrawing(bar, { name: 'bar', source: 'bar.dxf', units: 'cm' });
     expect(Math.abs(cm.properties.J! / (mm.properties.J! * 1e-4) - 1)).toBeLessThan(1e-12);
     expect(Math.abs(cm.properties.Cw! - mm.properties.Cw! * 1e-6)).toBeLessThanOrEqual(1e-12 * mm.properties.Cw! + 1e-9);
+    // A symmetric section centred on the origin (the demo's T-slot, its centroid 1e-18 off by
+    // rounding): the shear centre is the tidied centroid, exactly 0, not rounding noise.
+    const slot = await computeDrawing(readFileSync(new URL('../../../fixtures/demo/mx121-t-slot-40.dxf', import.meta.url), 'utf8'), { name: 'slot', source: 'slot.dxf' });
+    expect([slot.properties.cx, slot.properties.cy]).toEqual([0, 0]);
+    expect([slot.properties.xs, slot.properties.ys]).toEqual([0, 0]);
     const fast = await computeDrawing(bar, { name: 'bar', source: 'bar.dxf', torsion: false });
     expect(fast.properties.J).toBeUndefined();
     expect(fast.accuracy.J).toBeUndefined();
